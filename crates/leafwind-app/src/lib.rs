@@ -1,0 +1,13 @@
+//! # leafwind-app
+//!
+//! The `leafwind` desktop app and its headless subcommands, over `leafwind-physics`.
+//!
+//! | module | what it owns |
+//! |---|---|
+//! | [`cli`] | argument parsing and the headless subcommands |
+//! | [`output`] | flat, unit-named records of engine results for JSON and CSV |
+//! | [`gui`] | the eframe window: document, panels, plots |
+
+pub mod cli;
+pub mod gui;
+pub mod output;

@@ -1,0 +1,422 @@
+//! The steady energy balance of one flat leaf, solved exactly, and its linearised
+//! (Penman–Monteith-type) closed form.
+//!
+//! Per unit one-sided leaf area, both faces summed (all \[W m⁻²\]):
+//!
+//! absorbed (shortwave + longwave) = emitted ε σ T_L⁴ · 2 + sensible h (T_L − T_a) + latent λ E,
+//!
+//! with h and the boundary-layer vapour conductances from [`crate::convection`] at the film
+//! temperature (so free convection feeds back on T_L), E from [`crate::transpiration`] with
+//! e_s(T_L) from [`crate::air`], and the radiation terms from [`crate::radiation`].
+//!
+//! # References
+//! - \[CN98\] Campbell, G. S., Norman, J. M. (1998). *An Introduction to Environmental Biophysics*,
+//!   2nd ed. Springer. Ch. 14 (the leaf energy balance; the linearised leaf temperature with the
+//!   isothermal net radiation and the "apparent psychrometer constant").
+//! - \[Monteith\] Monteith, J. L., Unsworth, M. H. (2013). *Principles of Environmental Physics*,
+//!   4th ed. Academic Press. Ch. 13 (linearisation of e_s(T) by its slope Δ, the Penman argument).
+
+use crate::air::{
+    AirProperties, molar_latent_heat_j_mol, saturation_slope_kpa_k, saturation_vapour_pressure_kpa,
+};
+use crate::boundary_layer::{effective_thickness_m, thickness_99_m};
+use crate::case::LeafCase;
+use crate::constants::ZERO_CELSIUS_K;
+use crate::convection::{FlowConditions, LeafConvection, leaf_convection};
+use crate::error::Result;
+use crate::radiation::{
+    absorbed_longwave_w_m2, absorbed_shortwave_w_m2, emitted_longwave_w_m2,
+    radiative_conductance_w_m2_k,
+};
+use crate::solver::{SolverReport, SolverSettings, solve_decreasing};
+use crate::transpiration::{
+    face_vapour_conductance_mol_m2_s, split_stomatal, transpiration_mol_m2_s,
+};
+
+/// Residual tolerance of the exact solve \[W m⁻²\].
+pub const RESIDUAL_TOLERANCE_W_M2: f64 = 1e-9;
+
+/// The leaf temperature is sought within this many kelvin of the air temperature \[K\].
+pub const SEARCH_HALF_WIDTH_K: f64 = 120.0;
+
+/// A validated case with everything that does not depend on the leaf temperature computed once.
+#[derive(Debug, Clone, Copy)]
+pub struct PreparedLeaf {
+    case: LeafCase,
+    air_temp_k: f64,
+    vapour_pressure_kpa: f64,
+    pressure_kpa: f64,
+    above_k: f64,
+    below_k: f64,
+    absorbed_shortwave_w_m2: f64,
+    absorbed_longwave_w_m2: f64,
+    stomatal_upper_mol_m2_s: f64,
+    stomatal_lower_mol_m2_s: f64,
+    cuticular_face_mol_m2_s: f64,
+    flow: FlowConditions,
+}
+
+/// Every term of the balance at one leaf temperature.
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct BalanceTerms {
+    /// Leaf temperature \[K\].
+    pub leaf_temp_k: f64,
+    /// Emitted longwave, both faces \[W m⁻²\].
+    pub emitted_w_m2: f64,
+    /// Sensible heat to the air, both faces \[W m⁻²\] (negative when the air heats the leaf).
+    pub sensible_w_m2: f64,
+    /// Latent heat of transpiration \[W m⁻²\] (negative for dew).
+    pub latent_w_m2: f64,
+    /// Absorbed − emitted − sensible − latent \[W m⁻²\].
+    pub residual_w_m2: f64,
+    /// Approximate d(residual)/dT_L \[W m⁻² K⁻¹\] (negative).
+    pub residual_slope_w_m2_k: f64,
+    /// Boundary-layer conductances at this temperature.
+    pub convection: LeafConvection,
+    /// Total vapour conductance of the upper face \[mol m⁻² s⁻¹\].
+    pub vapour_upper_mol_m2_s: f64,
+    /// Total vapour conductance of the lower face \[mol m⁻² s⁻¹\].
+    pub vapour_lower_mol_m2_s: f64,
+    /// Transpiration rate \[mol m⁻² s⁻¹\].
+    pub transpiration_mol_m2_s: f64,
+    /// Air properties at the film temperature.
+    pub film_properties: AirProperties,
+}
+
+impl PreparedLeaf {
+    /// Validates `case` and precomputes the temperature-independent parts.
+    ///
+    /// # Errors
+    /// The first invalid input (see [`LeafCase::validate`]).
+    pub fn new(case: &LeafCase) -> Result<Self> {
+        case.validate()?;
+        let air_temp_k = case.air_temp_k();
+        let e_a = case.air.humidity.vapour_pressure_kpa(case.air.temp_c)?;
+        let s = &case.surroundings;
+        let above_k = s.upper_view.radiant_temp_k(e_a, air_temp_k);
+        let below_k = s.ground_temp_c.map_or(air_temp_k, |t| t + ZERO_CELSIUS_K);
+        let (g_up, g_lo) = split_stomatal(
+            case.leaf.stomatal_conductance_mol_m2_s,
+            case.leaf.lower_share,
+        );
+        Ok(Self {
+            case: *case,
+            air_temp_k,
+            vapour_pressure_kpa: e_a,
+            pressure_kpa: case.air.pressure_kpa,
+            above_k,
+            below_k,
+            absorbed_shortwave_w_m2: absorbed_shortwave_w_m2(
+                case.leaf.absorptivity,
+                s.shortwave_w_m2,
+                s.ground_albedo,
+            ),
+            absorbed_longwave_w_m2: absorbed_longwave_w_m2(case.leaf.emissivity, above_k, below_k),
+            stomatal_upper_mol_m2_s: g_up,
+            stomatal_lower_mol_m2_s: g_lo,
+            cuticular_face_mol_m2_s: 0.5 * case.leaf.cuticular_conductance_mol_m2_s,
+            flow: FlowConditions {
+                speed_m_s: case.air.speed_m_s,
+                dimension_m: case.leaf.dimension_m,
+                turbulence_factor: case.air.turbulence_factor,
+                critical_reynolds: case.critical_reynolds,
+            },
+        })
+    }
+
+    /// The case this was prepared from.
+    #[must_use]
+    pub fn case(&self) -> &LeafCase {
+        &self.case
+    }
+
+    /// Air vapour pressure e_a \[kPa\].
+    #[must_use]
+    pub fn vapour_pressure_kpa(&self) -> f64 {
+        self.vapour_pressure_kpa
+    }
+
+    /// Absorbed radiation, shortwave plus longwave, both faces \[W m⁻²\].
+    #[must_use]
+    pub fn absorbed_w_m2(&self) -> f64 {
+        self.absorbed_shortwave_w_m2 + self.absorbed_longwave_w_m2
+    }
+
+    /// Every term of the balance with the leaf at `leaf_temp_k` \[K\].
+    #[must_use]
+    pub fn terms(&self, leaf_temp_k: f64) -> BalanceTerms {
+        let diff_k = leaf_temp_k - self.air_temp_k;
+        let film_k = 0.5 * (leaf_temp_k + self.air_temp_k);
+        let props = AirProperties::at(film_k, self.pressure_kpa, self.vapour_pressure_kpa);
+        let conv = leaf_convection(&props, &self.flow, diff_k);
+        let g_up = face_vapour_conductance_mol_m2_s(
+            self.stomatal_upper_mol_m2_s,
+            self.cuticular_face_mol_m2_s,
+            conv.upper.vapour_mol_m2_s,
+        );
+        let g_lo = face_vapour_conductance_mol_m2_s(
+            self.stomatal_lower_mol_m2_s,
+            self.cuticular_face_mol_m2_s,
+            conv.lower.vapour_mol_m2_s,
+        );
+        let leaf_temp_c = leaf_temp_k - ZERO_CELSIUS_K;
+        let e_leaf = saturation_vapour_pressure_kpa(leaf_temp_c);
+        let g_v = g_up + g_lo;
+        let e_flux =
+            transpiration_mol_m2_s(g_v, e_leaf, self.vapour_pressure_kpa, self.pressure_kpa);
+        let lambda = molar_latent_heat_j_mol(leaf_temp_c);
+        let eps = self.case.leaf.emissivity;
+        let emitted = 2.0 * emitted_longwave_w_m2(eps, leaf_temp_k);
+        let h = conv.heat_total_w_m2_k();
+        let sensible = h * diff_k;
+        let latent = lambda * e_flux;
+        let residual = self.absorbed_w_m2() - emitted - sensible - latent;
+        let slope = -(2.0 * radiative_conductance_w_m2_k(eps, leaf_temp_k)
+            + h
+            + lambda * g_v * saturation_slope_kpa_k(leaf_temp_c) / self.pressure_kpa);
+        BalanceTerms {
+            leaf_temp_k,
+            emitted_w_m2: emitted,
+            sensible_w_m2: sensible,
+            latent_w_m2: latent,
+            residual_w_m2: residual,
+            residual_slope_w_m2_k: slope.min(-1e-9),
+            convection: conv,
+            vapour_upper_mol_m2_s: g_up,
+            vapour_lower_mol_m2_s: g_lo,
+            transpiration_mol_m2_s: e_flux,
+            film_properties: props,
+        }
+    }
+
+    /// The linearised leaf–air temperature difference with conductances evaluated for a given
+    /// leaf–air difference `conductance_diff_k` \[K\] (which sets the free convection).
+    ///
+    /// ΔT = (R_ni − λ g_v D/P) / (h + h_R + λ g_v Δ/P) — e_s(T_L) replaced by e_s(T_a) + Δ ΔT and
+    /// T_L⁴ by T_a⁴ + 4 T_a³ ΔT (\[CN98\] ch. 14; \[Monteith\] ch. 13), with R_ni = absorbed − 2εσT_a⁴
+    /// the isothermal net radiation, h_R = 2 · 4εσT_a³, D the air's vapour-pressure deficit, Δ the
+    /// slope of e_s at T_a, and all properties at the air temperature.
+    fn linearised_diff_k(&self, conductance_diff_k: f64) -> f64 {
+        let t_a = self.air_temp_k;
+        let t_c = self.case.air.temp_c;
+        let props = AirProperties::at(t_a, self.pressure_kpa, self.vapour_pressure_kpa);
+        let conv = leaf_convection(&props, &self.flow, conductance_diff_k);
+        let g_v = face_vapour_conductance_mol_m2_s(
+            self.stomatal_upper_mol_m2_s,
+            self.cuticular_face_mol_m2_s,
+            conv.upper.vapour_mol_m2_s,
+        ) + face_vapour_conductance_mol_m2_s(
+            self.stomatal_lower_mol_m2_s,
+            self.cuticular_face_mol_m2_s,
+            conv.lower.vapour_mol_m2_s,
+        );
+        let eps = self.case.leaf.emissivity;
+        let lambda = molar_latent_heat_j_mol(t_c);
+        let p = self.pressure_kpa;
+        let deficit = saturation_vapour_pressure_kpa(t_c) - self.vapour_pressure_kpa;
+        let r_ni = self.absorbed_w_m2() - 2.0 * emitted_longwave_w_m2(eps, t_a);
+        let h_r = 2.0 * radiative_conductance_w_m2_k(eps, t_a);
+        (r_ni - lambda * g_v * deficit / p)
+            / (conv.heat_total_w_m2_k() + h_r + lambda * g_v * saturation_slope_kpa_k(t_c) / p)
+    }
+
+    /// The linearised (Penman–Monteith-type) leaf temperature.
+    ///
+    /// Two passes: the first with conductances for a leaf at air temperature (no free convection),
+    /// the second with free convection set by the first pass's difference.
+    #[must_use]
+    pub fn linearised(&self) -> LinearisedLeaf {
+        let first = self.linearised_diff_k(0.0);
+        let diff = self.linearised_diff_k(first);
+        LinearisedLeaf {
+            leaf_temp_c: self.case.air.temp_c + diff,
+            leaf_air_diff_k: diff,
+        }
+    }
+
+    /// Solves the balance exactly for the leaf temperature \[K\].
+    ///
+    /// Safeguarded Newton ([`crate::solver::solve_decreasing`]) from the first-pass linearised
+    /// estimate; the residual decreases monotonically with T_L (emission, sensible and latent
+    /// losses all rise with it), so the bracketed root is unique.
+    ///
+    /// # Errors
+    /// [`crate::PhysicsError::NoBracket`] should the root lie more than 120 K from the air.
+    pub fn solve_exact(&self) -> Result<(BalanceTerms, SolverReport)> {
+        let guess = self.air_temp_k + self.linearised_diff_k(0.0);
+        let settings = SolverSettings {
+            residual_tolerance: RESIDUAL_TOLERANCE_W_M2,
+            max_iterations: 100,
+            initial_step: 0.05,
+            min_x: self.air_temp_k - SEARCH_HALF_WIDTH_K,
+            max_x: self.air_temp_k + SEARCH_HALF_WIDTH_K,
+        };
+        let (t, report) = solve_decreasing(
+            |t| {
+                let terms = self.terms(t);
+                (terms.residual_w_m2, terms.residual_slope_w_m2_k)
+            },
+            guess,
+            &settings,
+            "leaf temperature",
+        )?;
+        let terms = self.terms(t);
+        Ok((
+            terms,
+            SolverReport {
+                residual: terms.residual_w_m2,
+                ..report
+            },
+        ))
+    }
+}
+
+/// The linearised estimate of the leaf temperature.
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct LinearisedLeaf {
+    /// Leaf temperature \[°C\].
+    pub leaf_temp_c: f64,
+    /// Leaf minus air temperature \[K\].
+    pub leaf_air_diff_k: f64,
+}
+
+/// The full result for one leaf: the exact balance and everything derived from it.
+///
+/// Fluxes are per unit one-sided leaf area, both faces summed.
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+pub struct LeafSolution {
+    /// Leaf temperature \[°C\].
+    pub leaf_temp_c: f64,
+    /// Leaf minus air temperature \[K\].
+    pub leaf_air_diff_k: f64,
+    /// Air temperature \[°C\] (as given).
+    pub air_temp_c: f64,
+    /// Air vapour pressure \[kPa\].
+    pub air_vapour_pressure_kpa: f64,
+    /// Air dew point \[°C\] (None for perfectly dry air).
+    pub air_dew_point_c: Option<f64>,
+    /// Leaf-to-air vapour-pressure deficit e_s(T_L) − e_a \[kPa\].
+    pub leaf_vpd_kpa: f64,
+    /// Absorbed shortwave, both faces \[W m⁻²\].
+    pub absorbed_shortwave_w_m2: f64,
+    /// Absorbed longwave, both faces \[W m⁻²\].
+    pub absorbed_longwave_w_m2: f64,
+    /// Radiant temperature of what the upper face sees (sky or cover) \[°C\].
+    pub above_radiant_temp_c: f64,
+    /// Radiant temperature of the ground \[°C\].
+    pub below_radiant_temp_c: f64,
+    /// The balance terms at the solution.
+    pub terms: BalanceTerms,
+    /// Radiative conductance of both faces, 2 · 4εσT_L³ \[W m⁻² K⁻¹\].
+    pub radiative_conductance_w_m2_k: f64,
+    /// 99 % velocity thickness at the trailing edge \[m\]; None in still air.
+    pub bl_thickness_m: Option<f64>,
+    /// Conduction-equivalent thickness of the upper face's boundary layer, k/h \[m\]; None when
+    /// h = 0 (still air with the leaf exactly at air temperature).
+    pub effective_bl_thickness_upper_m: Option<f64>,
+    /// Conduction-equivalent thickness of the lower face's boundary layer, k/h \[m\].
+    pub effective_bl_thickness_lower_m: Option<f64>,
+    /// Conduction-equivalent thickness for both faces together, 2k/(h_u + h_l) \[m\].
+    pub effective_bl_thickness_m: Option<f64>,
+    /// The linearised estimate beside the exact one.
+    pub linearised: LinearisedLeaf,
+    /// How the exact solve went.
+    pub solver: SolverReport,
+}
+
+impl LeafSolution {
+    /// Absorbed radiation, short and long, both faces \[W m⁻²\].
+    #[must_use]
+    pub fn absorbed_w_m2(&self) -> f64 {
+        self.absorbed_shortwave_w_m2 + self.absorbed_longwave_w_m2
+    }
+
+    /// Total vapour conductance, stomata plus boundary layer, both faces \[mol m⁻² s⁻¹\].
+    #[must_use]
+    pub fn total_vapour_conductance_mol_m2_s(&self) -> f64 {
+        self.terms.vapour_upper_mol_m2_s + self.terms.vapour_lower_mol_m2_s
+    }
+
+    /// Exact minus linearised leaf temperature \[K\].
+    #[must_use]
+    pub fn linearisation_error_k(&self) -> f64 {
+        self.leaf_temp_c - self.linearised.leaf_temp_c
+    }
+}
+
+/// Solves one leaf case: the exact balance, the linearised estimate and the derived quantities.
+///
+/// # Errors
+/// Invalid input (named), or a failed bracket (not expected for valid input).
+///
+/// ```
+/// use leafwind_physics::{LeafCase, solve_leaf};
+/// let s = solve_leaf(&LeafCase::default()).unwrap();
+/// assert!(s.solver.residual.abs() < 1e-6);
+/// assert!(s.leaf_temp_c.is_finite());
+/// ```
+pub fn solve_leaf(case: &LeafCase) -> Result<LeafSolution> {
+    let prepared = PreparedLeaf::new(case)?;
+    solve_prepared(&prepared)
+}
+
+/// As [`solve_leaf`] for an already prepared case.
+///
+/// # Errors
+/// A failed bracket (not expected for valid input).
+pub fn solve_prepared(prepared: &PreparedLeaf) -> Result<LeafSolution> {
+    let (terms, solver) = prepared.solve_exact()?;
+    let case = prepared.case();
+    let leaf_temp_c = terms.leaf_temp_k - ZERO_CELSIUS_K;
+    let props = &terms.film_properties;
+    let k = props.thermal_conductivity_w_m_k;
+    let conv = &terms.convection;
+    let bl = if case.air.speed_m_s > 0.0 {
+        Some(thickness_99_m(
+            case.leaf.dimension_m,
+            case.air.speed_m_s,
+            props.kinematic_viscosity_m2_s,
+            case.critical_reynolds,
+        ))
+    } else {
+        None
+    };
+    let e_a = prepared.vapour_pressure_kpa();
+    Ok(LeafSolution {
+        leaf_temp_c,
+        leaf_air_diff_k: terms.leaf_temp_k - prepared.air_temp_k,
+        air_temp_c: case.air.temp_c,
+        air_vapour_pressure_kpa: e_a,
+        air_dew_point_c: crate::air::dew_point_c(e_a).ok(),
+        leaf_vpd_kpa: saturation_vapour_pressure_kpa(leaf_temp_c) - e_a,
+        absorbed_shortwave_w_m2: prepared.absorbed_shortwave_w_m2,
+        absorbed_longwave_w_m2: prepared.absorbed_longwave_w_m2,
+        above_radiant_temp_c: prepared.above_k - ZERO_CELSIUS_K,
+        below_radiant_temp_c: prepared.below_k - ZERO_CELSIUS_K,
+        terms,
+        radiative_conductance_w_m2_k: 2.0
+            * radiative_conductance_w_m2_k(case.leaf.emissivity, terms.leaf_temp_k),
+        bl_thickness_m: bl,
+        effective_bl_thickness_upper_m: finite(effective_thickness_m(k, conv.upper.heat_w_m2_k)),
+        effective_bl_thickness_lower_m: finite(effective_thickness_m(k, conv.lower.heat_w_m2_k)),
+        effective_bl_thickness_m: finite(effective_thickness_m(k, 0.5 * conv.heat_total_w_m2_k())),
+        linearised: prepared.linearised(),
+        solver,
+    })
+}
+
+fn finite(x: f64) -> Option<f64> {
+    x.is_finite().then_some(x)
+}
+
+/// Only the exact leaf temperature \[°C\] (the fast path for sweeps and maps).
+///
+/// # Errors
+/// As [`solve_leaf`].
+pub fn leaf_temp_c(case: &LeafCase) -> Result<f64> {
+    let (terms, _) = PreparedLeaf::new(case)?.solve_exact()?;
+    Ok(terms.leaf_temp_k - ZERO_CELSIUS_K)
+}

@@ -61,6 +61,19 @@ pub const FORCED_REGIME_MAX_RICHARDSON: f64 = 0.1;
 /// Gr/Re² above which forced convection is neglected in the regime label (common practice, no source).
 pub const FREE_REGIME_MIN_RICHARDSON: f64 = 10.0;
 
+/// Cube root of a non-negative number as exp(ln x / 3): within a few ulp of `f64::cbrt` and,
+/// measured on the project's machines, 40 % faster (DEVELOPERS.md). Zero and negatives give 0.
+#[inline]
+fn cube_root(x: f64) -> f64 {
+    if x > 0.0 { (x.ln() / 3.0).exp() } else { 0.0 }
+}
+
+/// x^{1/5} of a non-negative number as exp(ln x / 5) (as [`cube_root`]).
+#[inline]
+fn fifth_root(x: f64) -> f64 {
+    if x > 0.0 { (0.2 * x.ln()).exp() } else { 0.0 }
+}
+
 /// Reynolds number Re = U L / ν \[–\].
 ///
 /// - `speed_m_s`: free-stream air speed \[m s⁻¹\]; `length_m`: length along the flow \[m\];
@@ -104,7 +117,7 @@ pub fn grashof(
 /// ```
 #[must_use]
 pub fn forced_nusselt(reynolds_l: f64, prandtl: f64, critical_reynolds: f64) -> f64 {
-    let pr_third = prandtl.cbrt();
+    let pr_third = cube_root(prandtl);
     if reynolds_l <= critical_reynolds {
         0.664 * reynolds_l.sqrt() * pr_third // eq. 7.30 of [Incropera]
     } else {
@@ -135,6 +148,10 @@ impl PlateSide {
     }
 }
 
+/// Ra at which the two unstable-side branches meet: 0.54 Ra^{1/4} = 0.15 Ra^{1/3} ⇒
+/// Ra = (0.54/0.15)^{12} ≈ 4.7 × 10⁶.
+pub const UNSTABLE_BRANCH_CROSSING_RA: f64 = 4_738_381.338_321_6;
+
 /// Average Nusselt (or Sherwood) number of free convection from one face of a horizontal plate \[–\].
 ///
 /// - `rayleigh`: Ra = Gr Pr (or Gr Sc for vapour) on L = A_s/P \[–\] (≥ 0); `side`: see [`PlateSide`].
@@ -150,10 +167,10 @@ impl PlateSide {
 #[must_use]
 pub fn free_nusselt(rayleigh: f64, side: PlateSide) -> f64 {
     let ra = rayleigh.max(0.0);
-    let ra_quarter = ra.sqrt().sqrt();
     match side {
-        PlateSide::Unstable => (0.54 * ra_quarter).max(0.15 * ra.cbrt()), // eqs. 9.30, 9.31
-        PlateSide::Stable => 0.52 * ra.powf(0.2),                         // eq. 9.32 (7th ed.)
+        PlateSide::Unstable if ra > UNSTABLE_BRANCH_CROSSING_RA => 0.15 * cube_root(ra), // eq. 9.31
+        PlateSide::Unstable => 0.54 * ra.sqrt().sqrt(),                                  // eq. 9.30
+        PlateSide::Stable => 0.52 * fifth_root(ra), // eq. 9.32 (7th ed.)
     }
 }
 
@@ -163,7 +180,7 @@ pub fn free_nusselt(rayleigh: f64, side: PlateSide) -> f64 {
 /// Reduces to the forced value when Nu_N → 0 and to the free value when Nu_F → 0.
 #[must_use]
 pub fn mixed_nusselt(forced: f64, free: f64) -> f64 {
-    (forced.powi(3) + free.powi(3)).cbrt()
+    cube_root(forced.powi(3) + free.powi(3))
 }
 
 /// What drives the convection.
@@ -279,6 +296,10 @@ pub struct FaceConductance {
     pub nusselt_forced: f64,
     /// Free-convection Nusselt number on the free-convection length \[–\].
     pub nusselt_free: f64,
+    /// The free-convection part of the heat-transfer coefficient \[W m⁻² K⁻¹\].
+    pub heat_free_w_m2_k: f64,
+    /// Exponent n of the free-convection law in use (h_N ∝ |ΔT|^n) \[–\].
+    pub free_exponent: f64,
 }
 
 /// Boundary-layer exchange of a whole flat leaf (two faces).
@@ -345,28 +366,57 @@ pub fn leaf_convection(
     let free_length = FREE_CONVECTION_LENGTH_PER_DIMENSION * d;
     let re = reynolds(flow.speed_m_s, d, nu);
     let nu_f = flow.turbulence_factor * forced_nusselt(re, props.prandtl, flow.critical_reynolds);
-    let sh_f = flow.turbulence_factor * forced_nusselt(re, props.schmidt, flow.critical_reynolds);
+    // Same correlation with Sc: only the Pr^{1/3} factor differs.
+    let sh_f = nu_f * cube_root(props.schmidt / props.prandtl);
     let gr_free = grashof(leaf_air_diff_k, props.temp_k, free_length, nu);
     let k = props.thermal_conductivity_w_m_k;
     let dv_c = props.vapour_diffusivity_m2_s * props.molar_density_mol_m3;
+    let h_forced = k * nu_f / d;
+    let g_forced = dv_c * sh_f / d;
     let face = |upper: bool| {
         let side = PlateSide::of_face(upper, leaf_air_diff_k);
         let nu_n = free_nusselt(gr_free * props.prandtl, side);
         let sh_n = free_nusselt(gr_free * props.schmidt, side);
+        let h_free = k * nu_n / free_length;
         FaceConductance {
-            heat_w_m2_k: mixed_nusselt(k * nu_f / d, k * nu_n / free_length),
-            vapour_mol_m2_s: mixed_nusselt(dv_c * sh_f / d, dv_c * sh_n / free_length),
+            heat_w_m2_k: mixed_nusselt(h_forced, h_free),
+            vapour_mol_m2_s: mixed_nusselt(g_forced, dv_c * sh_n / free_length),
             nusselt_forced: nu_f,
             nusselt_free: nu_n,
+            heat_free_w_m2_k: h_free,
+            free_exponent: free_exponent(gr_free * props.prandtl, side),
         }
     };
-    let gr_d = grashof(leaf_air_diff_k, props.temp_k, d, nu);
+    let gr_d = gr_free / FREE_CONVECTION_LENGTH_PER_DIMENSION.powi(3);
     LeafConvection {
         upper: face(true),
         lower: face(false),
         reynolds: re,
         grashof: gr_d,
         regime: Regime::classify(re, gr_d, props.prandtl, flow.critical_reynolds),
+    }
+}
+
+/// The exponent n of Ra in the [`free_nusselt`] branch in use (Nu ∝ Ra^n ∝ |ΔT|^n).
+#[must_use]
+pub fn free_exponent(rayleigh: f64, side: PlateSide) -> f64 {
+    match side {
+        PlateSide::Unstable if rayleigh > UNSTABLE_BRANCH_CROSSING_RA => 1.0 / 3.0,
+        PlateSide::Unstable => 0.25,
+        PlateSide::Stable => 0.2,
+    }
+}
+
+impl FaceConductance {
+    /// d(h ΔT)/dΔT \[W m⁻² K⁻¹\] at fixed air properties: h + n h_N³/h² for the blend
+    /// h = (h_F³ + h_N³)^{1/3} with h_N ∝ |ΔT|^n.
+    #[must_use]
+    pub fn sensible_slope_w_m2_k(&self) -> f64 {
+        let h = self.heat_w_m2_k;
+        if h <= 0.0 {
+            return 0.0;
+        }
+        h + self.free_exponent * self.heat_free_w_m2_k.powi(3) / (h * h)
     }
 }
 

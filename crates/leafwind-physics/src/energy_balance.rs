@@ -17,7 +17,8 @@
 //!   4th ed. Academic Press. Ch. 13 (linearisation of e_s(T) by its slope Δ, the Penman argument).
 
 use crate::air::{
-    AirProperties, molar_latent_heat_j_mol, saturation_slope_kpa_k, saturation_vapour_pressure_kpa,
+    AirProperties, molar_latent_heat_j_mol, saturation_slope_from_es_kpa_k, saturation_slope_kpa_k,
+    saturation_vapour_pressure_kpa,
 };
 use crate::boundary_layer::{effective_thickness_m, thickness_99_m};
 use crate::case::LeafCase;
@@ -33,11 +34,20 @@ use crate::transpiration::{
     face_vapour_conductance_mol_m2_s, split_stomatal, transpiration_mol_m2_s,
 };
 
-/// Residual tolerance of the exact solve \[W m⁻²\].
-pub const RESIDUAL_TOLERANCE_W_M2: f64 = 1e-9;
+/// Residual tolerance of the exact solve \[W m⁻²\] (ten times below the 10⁻⁶ W m⁻² the
+/// engine promises; the terms are of order 10³ W m⁻², so this is 10⁻¹⁰ relative).
+pub const RESIDUAL_TOLERANCE_W_M2: f64 = 1e-7;
+
+/// Residual tolerance of map and sweep cells \[W m⁻²\]: with a total conductance of at least
+/// ~10 W m⁻² K⁻¹ this keeps each cell within 10⁻⁵ K of the fully converged leaf temperature.
+pub const GRID_RESIDUAL_TOLERANCE_W_M2: f64 = 1e-4;
 
 /// The leaf temperature is sought within this many kelvin of the air temperature \[K\].
 pub const SEARCH_HALF_WIDTH_K: f64 = 120.0;
+
+/// dλ/dT of the molar latent heat \[J mol⁻¹ K⁻¹\]: −2.361 × 10³ J kg⁻¹ K⁻¹ × M_w (FAO-56 Annex 3,
+/// eq. 3-1, as [`crate::air::latent_heat_j_kg`]).
+const LATENT_HEAT_SLOPE_J_MOL_K: f64 = -2.361e3 * crate::constants::MOLAR_MASS_WATER_KG_MOL;
 
 /// A validated case with everything that does not depend on the leaf temperature computed once.
 #[derive(Debug, Clone, Copy)]
@@ -125,6 +135,18 @@ impl PreparedLeaf {
         })
     }
 
+    /// The same prepared leaf at another air speed \[m s⁻¹\] (only the speed is re-checked).
+    ///
+    /// # Errors
+    /// The speed is out of range.
+    pub fn at_speed(&self, speed_m_s: f64) -> Result<Self> {
+        let speed = crate::case::AIR_SPEED_RANGE_M_S.check(speed_m_s)?;
+        let mut next = *self;
+        next.case.air.speed_m_s = speed;
+        next.flow.speed_m_s = speed;
+        Ok(next)
+    }
+
     /// The case this was prepared from.
     #[must_use]
     pub fn case(&self) -> &LeafCase {
@@ -162,6 +184,7 @@ impl PreparedLeaf {
         );
         let leaf_temp_c = leaf_temp_k - ZERO_CELSIUS_K;
         let e_leaf = saturation_vapour_pressure_kpa(leaf_temp_c);
+        let e_slope = saturation_slope_from_es_kpa_k(leaf_temp_c, e_leaf);
         let g_v = g_up + g_lo;
         let e_flux =
             transpiration_mol_m2_s(g_v, e_leaf, self.vapour_pressure_kpa, self.pressure_kpa);
@@ -173,8 +196,10 @@ impl PreparedLeaf {
         let latent = lambda * e_flux;
         let residual = self.absorbed_w_m2() - emitted - sensible - latent;
         let slope = -(2.0 * radiative_conductance_w_m2_k(eps, leaf_temp_k)
-            + h
-            + lambda * g_v * saturation_slope_kpa_k(leaf_temp_c) / self.pressure_kpa);
+            + conv.upper.sensible_slope_w_m2_k()
+            + conv.lower.sensible_slope_w_m2_k()
+            + lambda * g_v * e_slope / self.pressure_kpa
+            + LATENT_HEAT_SLOPE_J_MOL_K * e_flux);
         BalanceTerms {
             leaf_temp_k,
             emitted_w_m2: emitted,
@@ -223,12 +248,13 @@ impl PreparedLeaf {
 
     /// The linearised (Penman–Monteith-type) leaf temperature.
     ///
-    /// Two passes: the first with conductances for a leaf at air temperature (no free convection),
+    /// Two passes: the first with conductances for a leaf at air temperature (no free convection;
+    /// in still air, free convection for a nominal 1 K difference of the sign the drive gives),
     /// the second with free convection set by the first pass's difference.
     #[must_use]
     pub fn linearised(&self) -> LinearisedLeaf {
-        let first = self.linearised_diff_k(0.0);
-        let diff = self.linearised_diff_k(first);
+        let diff =
+            self.linearised_diff_k(self.linearised_diff_k(self.first_pass_conductance_diff_k()));
         LinearisedLeaf {
             leaf_temp_c: self.case.air.temp_c + diff,
             leaf_air_diff_k: diff,
@@ -237,31 +263,117 @@ impl PreparedLeaf {
 
     /// Solves the balance exactly for the leaf temperature \[K\].
     ///
-    /// Safeguarded Newton ([`crate::solver::solve_decreasing`]) from the first-pass linearised
-    /// estimate; the residual decreases monotonically with T_L (emission, sensible and latent
+    /// Safeguarded Newton ([`crate::solver::solve_decreasing`]) from the air temperature; the
+    /// residual decreases monotonically with T_L (emission, sensible and latent
     /// losses all rise with it), so the bracketed root is unique.
     ///
     /// # Errors
     /// [`crate::PhysicsError::NoBracket`] should the root lie more than 120 K from the air.
     pub fn solve_exact(&self) -> Result<(BalanceTerms, SolverReport)> {
-        let guess = self.air_temp_k + self.linearised_diff_k(0.0);
-        let settings = SolverSettings {
-            residual_tolerance: RESIDUAL_TOLERANCE_W_M2,
+        self.solve_exact_from(self.default_guess_k())
+    }
+
+    /// Where the exact solve starts. In moving air, the air temperature: Newton's first step from
+    /// there is exactly the first-pass linearised estimate, so it costs nothing extra. In still
+    /// air the air temperature is a degenerate root (no free convection without a temperature
+    /// difference, so no exchange at all) and the start is the linearised estimate instead, from
+    /// which the solver reaches the physical root.
+    fn default_guess_k(&self) -> f64 {
+        if self.flow.speed_m_s > 0.0 {
+            self.air_temp_k
+        } else {
+            self.air_temp_k + self.linearised().leaf_air_diff_k
+        }
+    }
+
+    /// The leaf–air difference at which the first linearised pass evaluates the conductances
+    /// \[K\]: 0 in moving air; in still air ±1 K with the sign of the drive.
+    fn first_pass_conductance_diff_k(&self) -> f64 {
+        if self.flow.speed_m_s > 0.0 {
+            0.0
+        } else if self.linearised_diff_k(1.0) >= 0.0 {
+            1.0
+        } else {
+            -1.0
+        }
+    }
+
+    /// As [`PreparedLeaf::solve_exact`], starting from a given leaf temperature \[K\] (for example
+    /// the solution of a neighbouring case in a sweep). The answer does not depend on the guess.
+    ///
+    /// # Errors
+    /// As [`PreparedLeaf::solve_exact`].
+    pub fn solve_exact_from(&self, guess_k: f64) -> Result<(BalanceTerms, SolverReport)> {
+        self.solve_with(guess_k, RESIDUAL_TOLERANCE_W_M2)
+    }
+
+    /// Only the leaf temperature \[K\] and the solver report, from `guess_k` to the residual
+    /// tolerance `residual_tolerance_w_m2` \[W m⁻²\] (the lean path of sweeps and maps).
+    ///
+    /// # Errors
+    /// As [`PreparedLeaf::solve_exact`].
+    pub fn solve_temperature_k(
+        &self,
+        guess_k: f64,
+        residual_tolerance_w_m2: f64,
+    ) -> Result<(f64, SolverReport)> {
+        let guess = if guess_k.is_finite() {
+            guess_k
+        } else {
+            self.default_guess_k()
+        };
+        solve_decreasing(
+            |t| {
+                let terms = self.terms(t);
+                (terms.residual_w_m2, terms.residual_slope_w_m2_k)
+            },
+            guess,
+            &self.solver_settings(residual_tolerance_w_m2),
+            "leaf temperature",
+        )
+    }
+
+    fn solver_settings(&self, residual_tolerance_w_m2: f64) -> SolverSettings {
+        SolverSettings {
+            residual_tolerance: residual_tolerance_w_m2,
             max_iterations: 100,
-            initial_step: 0.05,
+            initial_step: 0.01,
             min_x: self.air_temp_k - SEARCH_HALF_WIDTH_K,
             max_x: self.air_temp_k + SEARCH_HALF_WIDTH_K,
+        }
+    }
+
+    /// As [`PreparedLeaf::solve_exact_from`] with a chosen residual tolerance \[W m⁻²\].
+    ///
+    /// # Errors
+    /// As [`PreparedLeaf::solve_exact`].
+    pub fn solve_with(
+        &self,
+        guess_k: f64,
+        residual_tolerance_w_m2: f64,
+    ) -> Result<(BalanceTerms, SolverReport)> {
+        let guess = if guess_k.is_finite() {
+            guess_k
+        } else {
+            self.default_guess_k()
         };
+        let settings = self.solver_settings(residual_tolerance_w_m2);
+        let mut last: Option<BalanceTerms> = None;
         let (t, report) = solve_decreasing(
             |t| {
                 let terms = self.terms(t);
+                last = Some(terms);
                 (terms.residual_w_m2, terms.residual_slope_w_m2_k)
             },
             guess,
             &settings,
             "leaf temperature",
         )?;
-        let terms = self.terms(t);
+        // The solver's last evaluation is at the returned root unless it stopped by bisection.
+        let terms = match last {
+            Some(terms) if terms.leaf_temp_k == t => terms,
+            _ => self.terms(t),
+        };
         Ok((
             terms,
             SolverReport {

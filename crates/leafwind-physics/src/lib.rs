@@ -30,6 +30,7 @@ pub mod constants;
 pub mod convection;
 pub mod energy_balance;
 pub mod error;
+pub mod grid;
 pub mod radiation;
 pub mod required_wind;
 pub mod solver;

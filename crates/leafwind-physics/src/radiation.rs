@@ -80,7 +80,9 @@ pub fn radiative_conductance_w_m2_k(emissivity: f64, temp_k: f64) -> f64 {
 }
 
 /// Clear-sky emissivity of the atmosphere \[–\] (\[Brutsaert\]): ε_a = 1.24 (e_a / T_a)^{1/7}, with
-/// e_a in hPa and T_a in K. Capped at 1.
+/// e_a in hPa and T_a in K. Capped at 1; below 1 hPa (drier than the data behind the formula) it
+/// is held at its 1 hPa value — a deliberate deviation, so that perfectly dry air does not give a
+/// sky at absolute zero.
 ///
 /// - `vapour_pressure_kpa`: screen-height vapour pressure \[kPa\]; `air_temp_k` \[K\].
 ///
@@ -91,7 +93,7 @@ pub fn radiative_conductance_w_m2_k(emissivity: f64, temp_k: f64) -> f64 {
 /// ```
 #[must_use]
 pub fn clear_sky_emissivity(vapour_pressure_kpa: f64, air_temp_k: f64) -> f64 {
-    let e_hpa = (vapour_pressure_kpa * 10.0).max(0.0);
+    let e_hpa = (vapour_pressure_kpa * 10.0).max(1.0);
     (1.24 * (e_hpa / air_temp_k).powf(1.0 / 7.0)).min(1.0)
 }
 
@@ -164,7 +166,10 @@ mod tests {
         for (e, t) in [(0.5, 273.15), (2.0, 298.15), (4.0, 308.15)] {
             assert!(clear_sky_temperature_k(e, t) < t);
         }
-        // Dry air cannot give a negative emissivity.
-        assert_eq!(clear_sky_emissivity(0.0, 300.0), 0.0);
+        // Perfectly dry air is held at the 1 hPa value.
+        assert_eq!(
+            clear_sky_emissivity(0.0, 300.0),
+            clear_sky_emissivity(0.1, 300.0)
+        );
     }
 }

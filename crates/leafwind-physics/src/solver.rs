@@ -42,7 +42,7 @@ impl SolverStatus {
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct SolverReport {
-    /// Function evaluations after bracketing (Newton or bisection steps).
+    /// Function evaluations after the first (Newton, secant or bisection steps).
     pub iterations: u32,
     /// Residual at the returned root, in the function's unit.
     pub residual: f64,
@@ -57,7 +57,7 @@ pub struct SolverSettings {
     pub residual_tolerance: f64,
     /// Largest number of iterations inside the bracket.
     pub max_iterations: u32,
-    /// First step when searching for a bracket from the initial guess.
+    /// Smallest step of the unbracketed phase (used when Newton's step vanishes).
     pub initial_step: f64,
     /// The search never leaves `[min_x, max_x]`.
     pub min_x: f64,
@@ -67,9 +67,11 @@ pub struct SolverSettings {
 
 /// Finds x with f(x) = 0 for a function that decreases through its root.
 ///
-/// `f` returns (f(x), f′(x)); the derivative may be approximate (it only steers Newton steps) but
-/// must be negative. The bracket is sought from `guess` by steps that double, within
-/// `[min_x, max_x]`.
+/// `f` returns (f(x), f′(x)); the derivative may be approximate (it only steers the first step) but
+/// must be negative. Phase 1 takes Newton steps (secant ones where the derivative is unusable) from `guess` until the residual
+/// tolerance is met or the root is bracketed, doubling the step whenever the residual fails to halve
+/// (so it reaches the ends of `[min_x, max_x]` in a few steps if it must). Phase 2 is `rtsafe`
+/// (\[Press\] §9.4) on the bracket, with secant slopes and bisection as the safeguard.
 ///
 /// # Errors
 /// [`PhysicsError::NoBracket`] if no sign change is found in the domain.
@@ -79,89 +81,102 @@ pub fn solve_decreasing(
     settings: &SolverSettings,
     quantity: &'static str,
 ) -> Result<(f64, SolverReport)> {
+    let tol = settings.residual_tolerance;
     let clamp = |x: f64| x.clamp(settings.min_x, settings.max_x);
-    let x0 = clamp(guess);
-    let (f0, d0) = f(x0);
-    if f0.abs() <= settings.residual_tolerance {
-        return Ok((
-            x0,
-            SolverReport {
-                iterations: 0,
-                residual: f0,
-                status: SolverStatus::Converged,
-            },
-        ));
-    }
-    // Bracket: lo has f > 0, hi has f < 0.
-    let (mut lo, mut f_lo, mut hi, mut f_hi);
-    let mut step = settings.initial_step.max((f0 / d0).abs() * 1.5);
-    if f0 > 0.0 {
-        lo = x0;
-        f_lo = f0;
-        loop {
-            hi = clamp(lo + step);
-            f_hi = f(hi).0;
-            if f_hi <= 0.0 {
-                break;
-            }
-            if hi >= settings.max_x {
-                return Err(PhysicsError::NoBracket {
-                    quantity,
-                    low: x0,
-                    high: hi,
-                    f_low: f0,
-                    f_high: f_hi,
-                });
-            }
-            lo = hi;
-            f_lo = f_hi;
-            step *= 2.0;
-        }
-    } else {
-        hi = x0;
-        f_hi = f0;
-        loop {
-            lo = clamp(hi - step);
-            f_lo = f(lo).0;
-            if f_lo >= 0.0 {
-                break;
-            }
-            if lo <= settings.min_x {
-                return Err(PhysicsError::NoBracket {
-                    quantity,
-                    low: lo,
-                    high: x0,
-                    f_low: f_lo,
-                    f_high: f0,
-                });
-            }
-            hi = lo;
-            f_hi = f_lo;
-            step *= 2.0;
-        }
-    }
-    if f_lo == 0.0 {
-        return Ok((lo, converged(0, 0.0)));
-    }
-    if f_hi == 0.0 {
-        return Ok((hi, converged(0, 0.0)));
-    }
-    // Start from the secant point of the bracket ([Press] §9.4 starts from the midpoint).
-    let mut x = lo - f_lo * (hi - lo) / (f_hi - f_lo);
-    let mut dx_old = hi - lo;
+    let mut x = clamp(guess);
+    let (mut fx, dfx) = f(x);
     let mut iterations = 0;
+    if fx.abs() <= tol {
+        return Ok((x, report(iterations, fx, SolverStatus::Converged)));
+    }
+    let mut slope = if dfx < 0.0 { dfx } else { -1.0 };
+    // Phase 1: unbracketed Newton/secant steps.
+    let (mut lo, mut f_lo, mut hi, mut f_hi);
+    let mut boost = 1.0;
+    loop {
+        iterations += 1;
+        let mut step = -fx / slope * boost;
+        if step.abs() < settings.initial_step * 1e-9 {
+            step = settings.initial_step * fx.signum();
+        }
+        let x_new = clamp(x + step);
+        let (f_new, df_new) = f(x_new);
+        if f_new.abs() <= tol {
+            return Ok((x_new, report(iterations, f_new, SolverStatus::Converged)));
+        }
+        if (f_new > 0.0) != (fx > 0.0) {
+            if fx > 0.0 {
+                (lo, f_lo, hi, f_hi) = (x, fx, x_new, f_new);
+            } else {
+                (lo, f_lo, hi, f_hi) = (x_new, f_new, x, fx);
+            }
+            break;
+        }
+        if x_new == x || iterations >= settings.max_iterations {
+            let (low, high) = if fx > 0.0 {
+                (x, settings.max_x)
+            } else {
+                (settings.min_x, x)
+            };
+            return Err(PhysicsError::NoBracket {
+                quantity,
+                low,
+                high,
+                f_low: fx,
+                f_high: f_new,
+            });
+        }
+        // The supplied derivative if it is usable, else the secant slope.
+        let secant = (f_new - fx) / (x_new - x);
+        slope = if df_new < 0.0 && df_new.is_finite() {
+            df_new
+        } else if secant < 0.0 && secant.is_finite() {
+            secant
+        } else {
+            slope
+        };
+        boost = if f_new.abs() > 0.5 * fx.abs() {
+            boost * 2.0
+        } else {
+            1.0
+        };
+        x = x_new;
+        fx = f_new;
+    }
+    // Phase 2: rtsafe on [lo, hi] with secant slopes.
+    let mut x = lo - f_lo * (hi - lo) / (f_hi - f_lo);
+    let mut prev: Option<(f64, f64)> = None;
+    let mut dx_old = hi - lo;
     while iterations < settings.max_iterations {
         iterations += 1;
         let (fx, dfx) = f(x);
-        if fx.abs() <= settings.residual_tolerance {
-            return Ok((x, converged(iterations, fx)));
+        if fx.abs() <= tol {
+            return Ok((x, report(iterations, fx, SolverStatus::Converged)));
         }
-        if fx > 0.0 {
+        let nearest = if fx > 0.0 {
+            let n = (hi, f_hi);
             lo = x;
+            f_lo = fx;
+            n
         } else {
+            let n = (lo, f_lo);
             hi = x;
-        }
-        let newton = if dfx < 0.0 { x - fx / dfx } else { f64::NAN };
+            f_hi = fx;
+            n
+        };
+        let (px, pf) = prev.unwrap_or(nearest);
+        let secant = (fx - pf) / (x - px);
+        let slope = if secant < 0.0 && secant.is_finite() {
+            secant
+        } else {
+            dfx
+        };
+        prev = Some((x, fx));
+        let newton = if slope < 0.0 {
+            x - fx / slope
+        } else {
+            f64::NAN
+        };
         let next = if newton > lo && newton < hi && (newton - x).abs() < 0.5 * dx_old.abs() {
             newton
         } else {
@@ -169,33 +184,19 @@ pub fn solve_decreasing(
         };
         dx_old = next - x;
         if next == x || hi - lo <= f64::EPSILON * 4.0 * x.abs().max(1.0) {
-            return Ok((
-                x,
-                SolverReport {
-                    iterations,
-                    residual: fx,
-                    status: SolverStatus::BracketCollapsed,
-                },
-            ));
+            return Ok((x, report(iterations, fx, SolverStatus::BracketCollapsed)));
         }
         x = next;
     }
     let (fx, _) = f(x);
-    Ok((
-        x,
-        SolverReport {
-            iterations,
-            residual: fx,
-            status: SolverStatus::IterationLimit,
-        },
-    ))
+    Ok((x, report(iterations, fx, SolverStatus::IterationLimit)))
 }
 
-fn converged(iterations: u32, residual: f64) -> SolverReport {
+fn report(iterations: u32, residual: f64, status: SolverStatus) -> SolverReport {
     SolverReport {
         iterations,
         residual,
-        status: SolverStatus::Converged,
+        status,
     }
 }
 

@@ -33,8 +33,16 @@ pub mod error;
 pub mod grid;
 pub mod radiation;
 pub mod required_wind;
+pub mod shape;
 pub mod solver;
 pub mod transpiration;
+// Canopy, sun, greenhouse, crop limits and time series.
+pub mod canopy;
+pub mod crops;
+pub mod design_day;
+pub mod greenhouse;
+pub mod sun;
+pub mod weather;
 
 pub use air::Humidity;
 pub use case::{Air, Leaf, LeafCase, Surroundings};

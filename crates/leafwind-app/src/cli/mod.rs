@@ -5,6 +5,7 @@ use std::process::ExitCode;
 
 use clap::{Parser, Subcommand};
 
+pub mod shape;
 pub mod solve;
 
 /// Leaf temperature from the full energy balance, for greenhouse designers, crop breeders and
@@ -28,6 +29,9 @@ pub struct Cli {
 pub enum Command {
     /// Solve one leaf (or a CSV batch of leaves) and print the energy balance.
     Solve(solve::SolveArgs),
+    /// Measure leaf outlines (CSV, mm): area, size along and across the wind, effective dimension.
+    #[command(long_about = shape::LONG_ABOUT)]
+    Shape(shape::ShapeArgs),
 }
 
 /// Parses the arguments and runs; returns the process exit code.
@@ -36,6 +40,7 @@ pub fn main() -> ExitCode {
     let cli = Cli::parse();
     match cli.command {
         Some(Command::Solve(args)) => report(solve::run(&args, &mut std::io::stdout().lock())),
+        Some(Command::Shape(args)) => report(shape::run(&args, &mut std::io::stdout().lock())),
         None => report(crate::gui::run_window(crate::gui::WindowOptions {
             scenario: cli.scenario,
             screenshot: cli.screenshot,

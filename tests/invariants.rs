@@ -306,6 +306,7 @@ fn any_case() -> impl Strategy<Value = LeafCase> {
                     stomatal_conductance_mol_m2_s: gs,
                     lower_share: share,
                     cuticular_conductance_mol_m2_s: gc,
+                    free_convection_length_m: None,
                 },
                 surroundings: Surroundings {
                     shortwave_w_m2: sw,

@@ -203,3 +203,35 @@ proptest! {
         prop_assert!(rel(back, d) < 1e-8);
     }
 }
+
+// The outline feeds the single leaf: `ShapeMetrics::apply_to` sets the effective dimension and the
+// free-convection length A/P. In still air only free convection acts, so a leaf with a longer A/P
+// (the hull: larger area per edge) runs warmer in sun (Incropera 7th ed. eqs. 9.30–9.32: h ∝ L^{-1/4};
+// the trend is common practice, no source).
+#[test]
+fn outline_metrics_feed_the_energy_balance() {
+    let lobed = asset_outline("deeply_lobed.csv");
+    let hull: LeafShape = lobed.convex_hull().into();
+    let lobed: LeafShape = lobed.into();
+    let m_lobed = ShapeMetrics::of(&lobed, 0.0).unwrap();
+    let m_hull = ShapeMetrics::of(&hull, 0.0).unwrap();
+    assert!(m_lobed.free_convection_length_m < m_hull.free_convection_length_m);
+    let mut case = LeafCase::default().with_speed(0.0);
+    case.leaf.stomatal_conductance_mol_m2_s = 0.0;
+    case.surroundings.shortwave_w_m2 = 600.0;
+    let solve = |m: &ShapeMetrics| {
+        let mut c = case;
+        c.leaf = m.apply_to(&c.leaf);
+        solve_leaf(&c).unwrap()
+    };
+    let (s_lobed, s_hull) = (solve(&m_lobed), solve(&m_hull));
+    assert!(s_lobed.leaf_air_diff_k < s_hull.leaf_air_diff_k);
+    assert!(s_lobed.solver.residual.abs() < 1e-6);
+    // And in moving air the effective dimension decides.
+    let windy = |m: &ShapeMetrics| {
+        let mut c = case.with_speed(0.3);
+        c.leaf = m.apply_to(&c.leaf);
+        solve_leaf(&c).unwrap().leaf_air_diff_k
+    };
+    assert!(windy(&m_lobed) < windy(&m_hull));
+}

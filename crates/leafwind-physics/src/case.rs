@@ -35,6 +35,14 @@ pub const LEAF_DIMENSION_RANGE_M: ValidRange = ValidRange {
     unit: "m",
 };
 
+/// Valid free-convection lengths A_s/P \[m\] (a 1 mm needle's 0.25 mm to a 1 m leaf's 0.5 m).
+pub const FREE_CONVECTION_LENGTH_RANGE_M: ValidRange = ValidRange {
+    quantity: "free-convection length (area / perimeter)",
+    min: 0.000_25,
+    max: 0.5,
+    unit: "m",
+};
+
 /// Default leaf characteristic dimension \[m\]: 0.05 (a mid-sized crop leaflet; common practice, no
 /// source).
 pub const LEAF_DIMENSION_DEFAULT_M: f64 = 0.05;
@@ -92,6 +100,10 @@ pub struct Leaf {
     pub lower_share: f64,
     /// Cuticular conductance, both faces together, shared equally \[mol m⁻² s⁻¹\].
     pub cuticular_conductance_mol_m2_s: f64,
+    /// Free-convection length A_s/P of the leaf outline \[m\] (from [`crate::shape`]); `None`
+    /// takes a square leaf, d/4 ([`crate::convection::FREE_CONVECTION_LENGTH_PER_DIMENSION`]).
+    #[cfg_attr(feature = "serde", serde(default))]
+    pub free_convection_length_m: Option<f64>,
 }
 
 impl Default for Leaf {
@@ -103,7 +115,17 @@ impl Default for Leaf {
             stomatal_conductance_mol_m2_s: STOMATAL_CONDUCTANCE_DEFAULT_MOL_M2_S,
             lower_share: LOWER_SHARE_DEFAULT,
             cuticular_conductance_mol_m2_s: CUTICULAR_CONDUCTANCE_DEFAULT_MOL_M2_S,
+            free_convection_length_m: None,
         }
+    }
+}
+
+impl Leaf {
+    /// The free-convection length A_s/P \[m\] in use: the outline's, or d/4 for a square leaf.
+    #[must_use]
+    pub fn free_convection_length_m(&self) -> f64 {
+        self.free_convection_length_m
+            .unwrap_or(crate::convection::FREE_CONVECTION_LENGTH_PER_DIMENSION * self.dimension_m)
     }
 }
 
@@ -169,6 +191,9 @@ impl LeafCase {
         AIR_SPEED_RANGE_M_S.check(self.air.speed_m_s)?;
         TURBULENCE_FACTOR_RANGE.check(self.air.turbulence_factor)?;
         LEAF_DIMENSION_RANGE_M.check(self.leaf.dimension_m)?;
+        if let Some(l) = self.leaf.free_convection_length_m {
+            FREE_CONVECTION_LENGTH_RANGE_M.check(l)?;
+        }
         ABSORPTIVITY_RANGE.check(self.leaf.absorptivity)?;
         EMISSIVITY_RANGE.check(self.leaf.emissivity)?;
         STOMATAL_CONDUCTANCE_RANGE_MOL_M2_S.check(self.leaf.stomatal_conductance_mol_m2_s)?;

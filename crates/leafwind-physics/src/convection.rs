@@ -343,6 +343,8 @@ pub struct FlowConditions {
     pub turbulence_factor: f64,
     /// Transition Reynolds number \[–\].
     pub critical_reynolds: f64,
+    /// Free-convection length A_s/P \[m\].
+    pub free_length_m: f64,
 }
 
 /// Heat and vapour boundary-layer conductances of both faces of a flat leaf.
@@ -351,7 +353,7 @@ pub struct FlowConditions {
 /// - `leaf_air_diff_k`: leaf minus air temperature \[K\] (drives free convection).
 ///
 /// Each face: h_F = f_t k Nu_F / d with [`forced_nusselt`] (f_t the turbulence factor, \[CN98\] ch. 7);
-/// h_N = k Nu_N / L with [`free_nusselt`], L = d/4; h = (h_F³ + h_N³)^{1/3} ([`mixed_nusselt`] applied to
+/// h_N = k Nu_N / L with [`free_nusselt`], L = A_s/P (d/4 for a square leaf); h = (h_F³ + h_N³)^{1/3} ([`mixed_nusselt`] applied to
 /// conductances, which is the same blend when both use one length). Vapour: the same with Sc for Pr
 /// and D_v for k, converted to molar units with the air's molar density: g_bv = Sh D_v c / L
 /// (\[CN98\] ch. 6–7). Buoyancy from humidity differences is neglected.
@@ -363,7 +365,7 @@ pub fn leaf_convection(
 ) -> LeafConvection {
     let nu = props.kinematic_viscosity_m2_s;
     let d = flow.dimension_m;
-    let free_length = FREE_CONVECTION_LENGTH_PER_DIMENSION * d;
+    let free_length = flow.free_length_m;
     let re = reynolds(flow.speed_m_s, d, nu);
     let nu_f = flow.turbulence_factor * forced_nusselt(re, props.prandtl, flow.critical_reynolds);
     // Same correlation with Sc: only the Pr^{1/3} factor differs.
@@ -387,7 +389,7 @@ pub fn leaf_convection(
             free_exponent: free_exponent(gr_free * props.prandtl, side),
         }
     };
-    let gr_d = gr_free / FREE_CONVECTION_LENGTH_PER_DIMENSION.powi(3);
+    let gr_d = gr_free * (d / free_length).powi(3);
     LeafConvection {
         upper: face(true),
         lower: face(false),

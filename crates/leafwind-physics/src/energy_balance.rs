@@ -131,6 +131,7 @@ impl PreparedLeaf {
                 dimension_m: case.leaf.dimension_m,
                 turbulence_factor: case.air.turbulence_factor,
                 critical_reynolds: case.critical_reynolds,
+                free_length_m: case.leaf.free_convection_length_m(),
             },
         })
     }

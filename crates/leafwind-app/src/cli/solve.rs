@@ -151,6 +151,7 @@ impl SolveArgs {
                 stomatal_conductance_mol_m2_s: self.stomatal,
                 lower_share: self.lower_share,
                 cuticular_conductance_mol_m2_s: CUTICULAR_CONDUCTANCE_DEFAULT_MOL_M2_S,
+                free_convection_length_m: None,
             },
             surroundings: Surroundings {
                 shortwave_w_m2: need(self.sun, "sun")?,

@@ -415,6 +415,20 @@ impl ShapeMetrics {
     }
 }
 
+impl ShapeMetrics {
+    /// The leaf of the energy balance with this outline's size: the effective dimension along the
+    /// wind as the characteristic dimension, and A/P as the free-convection length. Other fields
+    /// are kept.
+    #[must_use]
+    pub fn apply_to(&self, leaf: &crate::case::Leaf) -> crate::case::Leaf {
+        crate::case::Leaf {
+            dimension_m: self.effective_dimension_m,
+            free_convection_length_m: Some(self.free_convection_length_m),
+            ..*leaf
+        }
+    }
+}
+
 /// The effective dimension over wind directions 0 ≤ θ < 180° (d_eff(θ + π) = d_eff(θ)).
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize))]

@@ -298,6 +298,8 @@ pub struct FaceConductance {
     pub nusselt_free: f64,
     /// The free-convection part of the heat-transfer coefficient \[W m⁻² K⁻¹\].
     pub heat_free_w_m2_k: f64,
+    /// The free-convection part of the vapour conductance \[mol m⁻² s⁻¹\].
+    pub vapour_free_mol_m2_s: f64,
     /// Exponent n of the free-convection law in use (h_N ∝ |ΔT|^n) \[–\].
     pub free_exponent: f64,
 }
@@ -380,9 +382,11 @@ pub fn leaf_convection(
         let nu_n = free_nusselt(gr_free * props.prandtl, side);
         let sh_n = free_nusselt(gr_free * props.schmidt, side);
         let h_free = k * nu_n / free_length;
+        let g_free = dv_c * sh_n / free_length;
         FaceConductance {
             heat_w_m2_k: mixed_nusselt(h_forced, h_free),
-            vapour_mol_m2_s: mixed_nusselt(g_forced, dv_c * sh_n / free_length),
+            vapour_mol_m2_s: mixed_nusselt(g_forced, g_free),
+            vapour_free_mol_m2_s: g_free,
             nusselt_forced: nu_f,
             nusselt_free: nu_n,
             heat_free_w_m2_k: h_free,
@@ -419,6 +423,17 @@ impl FaceConductance {
             return 0.0;
         }
         h + self.free_exponent * self.heat_free_w_m2_k.powi(3) / (h * h)
+    }
+
+    /// d(g_bv)/dΔT \[mol m⁻² s⁻¹ K⁻¹\] at fixed air properties: n g_N³/(g² ΔT) for the blend
+    /// g = (g_F³ + g_N³)^{1/3} with g_N ∝ |ΔT|^n; 0 at ΔT = 0 (where it is unbounded).
+    #[must_use]
+    pub fn vapour_slope_mol_m2_s_k(&self, leaf_air_diff_k: f64) -> f64 {
+        let g = self.vapour_mol_m2_s;
+        if g <= 0.0 || leaf_air_diff_k.abs() < 1e-6 {
+            return 0.0;
+        }
+        self.free_exponent * self.vapour_free_mol_m2_s.powi(3) / (g * g * leaf_air_diff_k)
     }
 }
 

@@ -82,6 +82,8 @@ pub struct BalanceTerms {
     pub residual_w_m2: f64,
     /// Approximate d(residual)/dT_L \[W m⁻² K⁻¹\] (negative).
     pub residual_slope_w_m2_k: f64,
+    /// Approximate d²(residual)/dT_L² \[W m⁻² K⁻²\]: the curvature of emission and of e_s only.
+    pub residual_curvature_w_m2_k2: f64,
     /// Boundary-layer conductances at this temperature.
     pub convection: LeafConvection,
     /// Total vapour conductance of the upper face \[mol m⁻² s⁻¹\].
@@ -196,13 +198,33 @@ impl PreparedLeaf {
         let sensible = h * diff_k;
         let latent = lambda * e_flux;
         let residual = self.absorbed_w_m2() - emitted - sensible - latent;
+        // d(g_v)/dT through the free-convection part of each face's boundary layer, in series
+        // with the surface: dg_v/dg_bv = (g_v/g_bv)².
+        let series = |g_face: f64, g_b: f64| {
+            if g_b > 0.0 {
+                (g_face / g_b).powi(2)
+            } else {
+                0.0
+            }
+        };
+        let dg_v = series(g_up, conv.upper.vapour_mol_m2_s)
+            * conv.upper.vapour_slope_mol_m2_s_k(diff_k)
+            + series(g_lo, conv.lower.vapour_mol_m2_s) * conv.lower.vapour_slope_mol_m2_s_k(diff_k);
         let slope = -(2.0 * radiative_conductance_w_m2_k(eps, leaf_temp_k)
+            + lambda * dg_v * (e_leaf - self.vapour_pressure_kpa) / self.pressure_kpa
             + conv.upper.sensible_slope_w_m2_k()
             + conv.lower.sensible_slope_w_m2_k()
             + lambda * g_v * e_slope / self.pressure_kpa
             + LATENT_HEAT_SLOPE_J_MOL_K * e_flux);
+        // Curvature: emission 2 · 12 ε σ T³/T and latent through Δ′ = Δ (4098/(T+237.3)² −
+        // 2/(T+237.3)), the derivative of eq. 13 of FAO-56.
+        let t_sat = leaf_temp_c + 237.3;
+        let slope_of_slope = e_slope * (4098.0 / (t_sat * t_sat) - 2.0 / t_sat);
+        let curvature = -(2.0 * 3.0 * radiative_conductance_w_m2_k(eps, leaf_temp_k) / leaf_temp_k
+            + lambda * g_v * slope_of_slope / self.pressure_kpa);
         BalanceTerms {
             leaf_temp_k,
+            residual_curvature_w_m2_k2: curvature,
             emitted_w_m2: emitted,
             sensible_w_m2: sensible,
             latent_w_m2: latent,
@@ -326,7 +348,11 @@ impl PreparedLeaf {
         solve_decreasing(
             |t| {
                 let terms = self.terms(t);
-                (terms.residual_w_m2, terms.residual_slope_w_m2_k)
+                (
+                    terms.residual_w_m2,
+                    terms.residual_slope_w_m2_k,
+                    terms.residual_curvature_w_m2_k2,
+                )
             },
             guess,
             &self.solver_settings(residual_tolerance_w_m2),
@@ -364,7 +390,11 @@ impl PreparedLeaf {
             |t| {
                 let terms = self.terms(t);
                 last = Some(terms);
-                (terms.residual_w_m2, terms.residual_slope_w_m2_k)
+                (
+                    terms.residual_w_m2,
+                    terms.residual_slope_w_m2_k,
+                    terms.residual_curvature_w_m2_k2,
+                )
             },
             guess,
             &settings,

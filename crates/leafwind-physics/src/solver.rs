@@ -67,8 +67,10 @@ pub struct SolverSettings {
 
 /// Finds x with f(x) = 0 for a function that decreases through its root.
 ///
-/// `f` returns (f(x), f′(x)); the derivative may be approximate (it only steers the first step) but
-/// must be negative. Phase 1 takes Newton steps (secant ones where the derivative is unusable) from `guess` until the residual
+/// `f` returns (f(x), f′(x), f″(x)); the derivatives may be approximate (they only steer the
+/// steps; f″ may be 0) but f′ must be negative. Phase 1 steps are Chebyshev's third-order
+/// correction of Newton's, δ = −f/f′ − f″ δ²/(2 f′) (\[Press\] §9.4, "Halley-type" methods),
+/// limited to the Newton step's size. Phase 1 takes Newton steps (secant ones where the derivative is unusable) from `guess` until the residual
 /// tolerance is met or the root is bracketed, doubling the step whenever the residual fails to halve
 /// (so it reaches the ends of `[min_x, max_x]` in a few steps if it must). Phase 2 is `rtsafe`
 /// (\[Press\] §9.4) on the bracket, with secant slopes and bisection as the safeguard.
@@ -76,7 +78,7 @@ pub struct SolverSettings {
 /// # Errors
 /// [`PhysicsError::NoBracket`] if no sign change is found in the domain.
 pub fn solve_decreasing(
-    mut f: impl FnMut(f64) -> (f64, f64),
+    mut f: impl FnMut(f64) -> (f64, f64, f64),
     guess: f64,
     settings: &SolverSettings,
     quantity: &'static str,
@@ -84,7 +86,7 @@ pub fn solve_decreasing(
     let tol = settings.residual_tolerance;
     let clamp = |x: f64| x.clamp(settings.min_x, settings.max_x);
     let mut x = clamp(guess);
-    let (mut fx, dfx) = f(x);
+    let (mut fx, dfx, mut d2fx) = f(x);
     let mut iterations = 0;
     if fx.abs() <= tol {
         return Ok((x, report(iterations, fx, SolverStatus::Converged)));
@@ -93,18 +95,30 @@ pub fn solve_decreasing(
     // Phase 1: unbracketed Newton/secant steps.
     let (mut lo, mut f_lo, mut hi, mut f_hi);
     let mut boost = 1.0;
+    // The newest point and its derivative, where phase 2 starts.
+    let (last_x, last_f, last_d);
     loop {
         iterations += 1;
-        let mut step = -fx / slope * boost;
+        let newton = -fx / slope;
+        let corrected = newton - d2fx * newton * newton / (2.0 * slope);
+        let mut step = if corrected.is_finite()
+            && corrected.abs() <= 1.5 * newton.abs()
+            && corrected * newton > 0.0
+        {
+            corrected
+        } else {
+            newton
+        } * boost;
         if step.abs() < settings.initial_step * 1e-9 {
             step = settings.initial_step * fx.signum();
         }
         let x_new = clamp(x + step);
-        let (f_new, df_new) = f(x_new);
+        let (f_new, df_new, d2f_new) = f(x_new);
         if f_new.abs() <= tol {
             return Ok((x_new, report(iterations, f_new, SolverStatus::Converged)));
         }
         if (f_new > 0.0) != (fx > 0.0) {
+            (last_x, last_f, last_d) = (x_new, f_new, df_new);
             if fx > 0.0 {
                 (lo, f_lo, hi, f_hi) = (x, fx, x_new, f_new);
             } else {
@@ -142,14 +156,20 @@ pub fn solve_decreasing(
         };
         x = x_new;
         fx = f_new;
+        d2fx = d2f_new;
     }
-    // Phase 2: rtsafe on [lo, hi] with secant slopes.
-    let mut x = lo - f_lo * (hi - lo) / (f_hi - f_lo);
-    let mut prev: Option<(f64, f64)> = None;
+    // Phase 2: rtsafe on [lo, hi] with secant slopes (a Newton step from the newest point first).
+    let newton_start = last_x - last_f / last_d;
+    let mut x = if last_d < 0.0 && newton_start > lo && newton_start < hi {
+        newton_start
+    } else {
+        lo - f_lo * (hi - lo) / (f_hi - f_lo)
+    };
+    let mut prev: Option<(f64, f64)> = Some((last_x, last_f));
     let mut dx_old = hi - lo;
     while iterations < settings.max_iterations {
         iterations += 1;
-        let (fx, dfx) = f(x);
+        let (fx, dfx, _) = f(x);
         if fx.abs() <= tol {
             return Ok((x, report(iterations, fx, SolverStatus::Converged)));
         }
@@ -188,7 +208,7 @@ pub fn solve_decreasing(
         }
         x = next;
     }
-    let (fx, _) = f(x);
+    let (fx, _, _) = f(x);
     Ok((x, report(iterations, fx, SolverStatus::IterationLimit)))
 }
 
@@ -215,20 +235,20 @@ mod tests {
     #[test]
     fn finds_a_cubic_root_with_a_poor_derivative() {
         // f = 8 - x³ decreasing, root 2; derivative deliberately off by a factor of 3.
-        let (x, r) = solve_decreasing(|x| (8.0 - x * x * x, -x * x), 10.0, &S, "x").unwrap();
+        let (x, r) = solve_decreasing(|x| (8.0 - x * x * x, -x * x, 0.0), 10.0, &S, "x").unwrap();
         assert!((x - 2.0).abs() < 1e-12, "{x}");
         assert_eq!(r.status, SolverStatus::Converged);
     }
 
     #[test]
     fn reports_no_bracket() {
-        let e = solve_decreasing(|x| (5.0 - 0.0 * x, -1.0), 0.0, &S, "x");
+        let e = solve_decreasing(|x| (5.0 - 0.0 * x, -1.0, 0.0), 0.0, &S, "x");
         assert!(matches!(e, Err(PhysicsError::NoBracket { .. })));
     }
 
     #[test]
     fn never_steps_outside_the_bracket_with_a_wrong_sign_derivative() {
-        let (x, _) = solve_decreasing(|x| (-(x - 3.0), 1.0), -50.0, &S, "x").unwrap();
+        let (x, _) = solve_decreasing(|x| (-(x - 3.0), 1.0, 0.0), -50.0, &S, "x").unwrap();
         assert!((x - 3.0).abs() < 1e-9);
     }
 }

@@ -43,6 +43,10 @@ pub mod design_day;
 pub mod greenhouse;
 pub mod sun;
 pub mod weather;
+// Air movement, night condensation and cooling options.
+pub mod condensation;
+pub mod cooling;
+pub mod fans;
 
 pub use air::Humidity;
 pub use case::{Air, Leaf, LeafCase, Surroundings};

@@ -43,6 +43,7 @@ use crate::convection::CRITICAL_REYNOLDS_DEFAULT;
 use crate::energy_balance::{BalanceTerms, PreparedLeaf};
 use crate::error::{PhysicsError, Result, ValidRange};
 use crate::radiation::{SHORTWAVE_RANGE_W_M2, UpperView};
+use crate::required_wind::SpeedSearch;
 use crate::sun::HorizontalShortwave;
 
 /// Valid leaf area indices \[m² leaf m⁻² ground\].
@@ -899,61 +900,50 @@ const SPEED_TOLERANCE_M_S: f64 = 1e-4;
 
 /// The least speed search shared by the canopy and the greenhouse: `eval(u)` returns (hottest leaf,
 /// air temperature) \[°C\] at canopy-top speed u. A grid from 0 to `max_speed_m_s` (denser at low
-/// speed) finds the first speed that meets the target; bisection refines it to 10⁻⁴ m s⁻¹.
+/// speed) finds the first speed that meets the target; bisection refines it to 10⁻⁴ m s⁻¹
+/// ([`crate::required_wind::least_speed_meeting`]).
 pub(crate) fn least_speed(
     mut eval: impl FnMut(f64) -> Result<(f64, f64)>,
     target_c: f64,
     max_speed_m_s: f64,
 ) -> Result<SpeedAnswer> {
-    let mut prev = 0.0;
-    let mut last = (f64::NAN, f64::NAN);
-    for i in 0..=SPEED_GRID_INTERVALS {
-        let f = i as f64 / SPEED_GRID_INTERVALS as f64;
-        let u = max_speed_m_s * f * f;
-        let (hot, air) = eval(u)?;
-        last = (hot, air);
-        if hot <= target_c {
-            if i == 0 {
-                return Ok(SpeedAnswer::NotNeeded {
-                    hottest_c: hot,
-                    target_c,
-                });
-            }
-            let (mut lo, mut hi) = (prev, u);
-            let mut hot_hi = hot;
-            while hi - lo > SPEED_TOLERANCE_M_S {
-                let mid = 0.5 * (lo + hi);
-                let (h, _) = eval(mid)?;
-                if h <= target_c {
-                    hi = mid;
-                    hot_hi = h;
-                } else {
-                    lo = mid;
-                }
-            }
-            return Ok(SpeedAnswer::Speed {
-                speed_m_s: hi,
-                hottest_c: hot_hi,
+    let search = crate::required_wind::least_speed_meeting(
+        &mut eval,
+        |&(hot, _): &(f64, f64)| hot <= target_c,
+        0.0,
+        max_speed_m_s,
+        SPEED_GRID_INTERVALS,
+        SPEED_TOLERANCE_M_S,
+    )?;
+    Ok(match search {
+        SpeedSearch::AtStart { value: (hot, _) } => SpeedAnswer::NotNeeded {
+            hottest_c: hot,
+            target_c,
+        },
+        SpeedSearch::Least {
+            speed_m_s,
+            value: (hot, _),
+        } => SpeedAnswer::Speed {
+            speed_m_s,
+            hottest_c: hot,
+            target_c,
+        },
+        SpeedSearch::Never {
+            value_at_max: (hot, air),
+        } => SpeedAnswer::Unreachable(if air >= target_c {
+            SpeedObstacle::AirTooHot {
+                air_temp_c: air,
                 target_c,
-            });
-        }
-        prev = u;
-    }
-    // No grid speed met the target; `last` is the search maximum.
-    let (hot, air) = last;
-    Ok(SpeedAnswer::Unreachable(if air >= target_c {
-        SpeedObstacle::AirTooHot {
-            air_temp_c: air,
-            target_c,
-            hottest_at_max_c: hot,
-        }
-    } else {
-        SpeedObstacle::BeyondSearch {
-            max_speed_m_s,
-            hottest_at_max_c: hot,
-            target_c,
-        }
-    }))
+                hottest_at_max_c: hot,
+            }
+        } else {
+            SpeedObstacle::BeyondSearch {
+                max_speed_m_s,
+                hottest_at_max_c: hot,
+                target_c,
+            }
+        }),
+    })
 }
 
 /// Valid upper ends of a speed search \[m s⁻¹\].

@@ -27,6 +27,7 @@ use crate::air::dew_point_c;
 use crate::case::{AIR_SPEED_RANGE_M_S, LeafCase};
 use crate::energy_balance::leaf_temp_c;
 use crate::error::{Result, ValidRange};
+use crate::required_wind::{SpeedSearch, least_speed_meeting};
 
 /// Valid margins above the dew point \[K\].
 pub const DEW_MARGIN_RANGE_K: ValidRange = ValidRange {
@@ -192,15 +193,6 @@ pub fn least_speed_against_dew(
     let e = case.air.humidity.vapour_pressure_kpa(case.air.temp_c)?;
     let dew = dew_point_c(e)?;
     let target = dew + margin;
-    let temp_at = |u: f64| leaf_temp_c(&case.with_speed(u));
-    let meets = |t: f64| t >= target;
-    let t0 = temp_at(0.0)?;
-    if meets(t0) {
-        return Ok(DewAnswer::NotNeeded {
-            still_air_leaf_temp_c: t0,
-            target_c: target,
-        });
-    }
     if case.air.temp_c <= target {
         return Ok(DewAnswer::Unreachable(DewObstacle::AirTooHumid {
             air_temp_c: case.air.temp_c,
@@ -208,38 +200,30 @@ pub fn least_speed_against_dew(
             target_c: target,
         }));
     }
-    let mut prev = 0.0;
-    let mut last = t0;
-    for i in 1..=GRID_INTERVALS {
-        let f = i as f64 / GRID_INTERVALS as f64;
-        let u = max * f * f;
-        let t = temp_at(u)?;
-        last = t;
-        if meets(t) {
-            let (mut lo, mut hi, mut t_hi) = (prev, u, t);
-            while hi - lo > 1e-6 {
-                let mid = 0.5 * (lo + hi);
-                let tm = temp_at(mid)?;
-                if meets(tm) {
-                    hi = mid;
-                    t_hi = tm;
-                } else {
-                    lo = mid;
-                }
-            }
-            return Ok(DewAnswer::Speed {
-                speed_m_s: hi,
-                leaf_temp_c: t_hi,
-                target_c: target,
-            });
-        }
-        prev = u;
-    }
-    Ok(DewAnswer::Unreachable(DewObstacle::BeyondSearch {
-        max_speed_m_s: max,
-        leaf_temp_at_max_c: last,
-        target_c: target,
-    }))
+    let search = least_speed_meeting(
+        |u| leaf_temp_c(&case.with_speed(u)),
+        |t: &f64| *t >= target,
+        0.0,
+        max,
+        GRID_INTERVALS,
+        1e-6,
+    )?;
+    Ok(match search {
+        SpeedSearch::AtStart { value } => DewAnswer::NotNeeded {
+            still_air_leaf_temp_c: value,
+            target_c: target,
+        },
+        SpeedSearch::Least { speed_m_s, value } => DewAnswer::Speed {
+            speed_m_s,
+            leaf_temp_c: value,
+            target_c: target,
+        },
+        SpeedSearch::Never { value_at_max } => DewAnswer::Unreachable(DewObstacle::BeyondSearch {
+            max_speed_m_s: max,
+            leaf_temp_at_max_c: value_at_max,
+            target_c: target,
+        }),
+    })
 }
 
 /// One hour of a night.

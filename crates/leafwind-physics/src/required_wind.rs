@@ -35,6 +35,9 @@ pub const LIMIT_RANGE_C: ValidRange = ValidRange {
 /// Grid intervals of the search.
 const GRID_INTERVALS: usize = 48;
 
+/// Bisection tolerance of the search \[m s⁻¹\].
+const SPEED_TOLERANCE_M_S: f64 = 1e-6;
+
 /// Why no air speed meets the target.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
@@ -163,6 +166,82 @@ impl Unreachable {
     }
 }
 
+/// Outcome of [`least_speed_meeting`].
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum SpeedSearch<T> {
+    /// The condition already holds at the start of the search; the value there.
+    AtStart {
+        /// The evaluated value at the start speed.
+        value: T,
+    },
+    /// The least speed at which it holds \[m s⁻¹\] (within the tolerance), and the value there.
+    Least {
+        /// The speed \[m s⁻¹\].
+        speed_m_s: f64,
+        /// The evaluated value at that speed.
+        value: T,
+    },
+    /// It holds nowhere in the search; the value at the search maximum.
+    Never {
+        /// The evaluated value at the maximum.
+        value_at_max: T,
+    },
+}
+
+/// The least air speed in `[start_m_s, max_m_s]` at which `meets(eval(u))` holds — the search that
+/// every "what air speed does it take" question of the engine shares.
+///
+/// `eval(u)` is evaluated on `grid_intervals` + 1 speeds u_i = start + (max − start)(i/n)² (denser
+/// at the start, where leaves respond most); the first grid speed that meets the condition is
+/// refined by bisection with the speed before it to `tolerance_m_s`, and the meeting side is
+/// returned. Robust where the response is not monotonic; features narrower than the grid spacing
+/// can be missed.
+///
+/// # Errors
+/// The first error of `eval`.
+pub fn least_speed_meeting<T: Copy>(
+    mut eval: impl FnMut(f64) -> Result<T>,
+    meets: impl Fn(&T) -> bool,
+    start_m_s: f64,
+    max_m_s: f64,
+    grid_intervals: usize,
+    tolerance_m_s: f64,
+) -> Result<SpeedSearch<T>> {
+    let n = grid_intervals.max(1);
+    let speed = |i: usize| {
+        let f = i as f64 / n as f64;
+        start_m_s + (max_m_s - start_m_s) * f * f
+    };
+    let first = eval(start_m_s)?;
+    if meets(&first) {
+        return Ok(SpeedSearch::AtStart { value: first });
+    }
+    let mut last = first;
+    for i in 1..=n {
+        let u = speed(i);
+        let v = eval(u)?;
+        if meets(&v) {
+            let (mut lo, mut hi, mut v_hi) = (speed(i - 1), u, v);
+            while hi - lo > tolerance_m_s {
+                let mid = 0.5 * (lo + hi);
+                let vm = eval(mid)?;
+                if meets(&vm) {
+                    hi = mid;
+                    v_hi = vm;
+                } else {
+                    lo = mid;
+                }
+            }
+            return Ok(SpeedSearch::Least {
+                speed_m_s: hi,
+                value: v_hi,
+            });
+        }
+        last = v;
+    }
+    Ok(SpeedSearch::Never { value_at_max: last })
+}
+
 /// The least air speed that keeps the leaf of `case` at or below `limit_c − margin_k`.
 ///
 /// - `case`: the leaf case (its own air speed is ignored except to report whether the leaf is
@@ -188,71 +267,52 @@ pub fn required_wind(
     case.validate()?;
     let target_c = limit_c - margin_k;
     let temp_at = |u: f64| leaf_temp_c(&case.with_speed(u));
-    let speeds: Vec<f64> = (0..=GRID_INTERVALS)
-        .map(|i| {
-            let f = i as f64 / GRID_INTERVALS as f64;
-            max_speed * f * f
+    let meets = |t: &f64| *t <= target_c;
+    let search = |start: f64, cond: &dyn Fn(&f64) -> bool| {
+        least_speed_meeting(
+            temp_at,
+            cond,
+            start,
+            max_speed,
+            GRID_INTERVALS,
+            SPEED_TOLERANCE_M_S,
+        )
+    };
+    // Above the answer, the least speed at which the target is lost again (a transpiring leaf below
+    // hot air is warmed by more air), if within the search.
+    let ceiling = |from: f64| -> Result<Option<f64>> {
+        Ok(match search(from, &|t: &f64| !meets(t))? {
+            SpeedSearch::Least { speed_m_s, .. } => Some(speed_m_s),
+            SpeedSearch::AtStart { .. } | SpeedSearch::Never { .. } => None,
         })
-        .collect();
-    let temps = speeds
-        .iter()
-        .map(|&u| temp_at(u))
-        .collect::<Result<Vec<f64>>>()?;
-    let meets = |t: f64| t <= target_c;
-    let Some(first) = temps.iter().position(|&t| meets(t)) else {
-        let leaf_temp_at_max_c = temps[GRID_INTERVALS];
-        let current = leaf_temp_c(case)?;
-        return Ok(WindAnswer::Unreachable(if case.air.temp_c >= target_c {
-            Unreachable::AirTooHot {
-                air_temp_c: case.air.temp_c,
-                target_c,
-                leaf_temp_at_max_c,
-                leaf_cooler_than_air: current < case.air.temp_c,
-            }
-        } else {
-            Unreachable::BeyondSearch {
-                max_speed_m_s: max_speed,
-                leaf_temp_at_max_c,
-                target_c,
-            }
-        }));
     };
-    // The first grid speed past `first` that fails again, if any: the ceiling.
-    let ceiling = match temps[first..].iter().position(|&t| !meets(t)) {
-        Some(offset) => {
-            let i = first + offset;
-            Some(bisect(speeds[i - 1], speeds[i], |u| temp_at(u).map(meets))?.0)
-        }
-        None => None,
-    };
-    if first == 0 {
-        return Ok(WindAnswer::NotNeeded {
-            still_air_leaf_temp_c: temps[0],
+    Ok(match search(0.0, &meets)? {
+        SpeedSearch::AtStart { value } => WindAnswer::NotNeeded {
+            still_air_leaf_temp_c: value,
             target_c,
-            ceiling_m_s: ceiling,
-        });
-    }
-    // Bisect between a failing and a meeting speed; return the meeting side.
-    let (_, speed) = bisect(speeds[first - 1], speeds[first], |u| temp_at(u).map(meets))?;
-    Ok(WindAnswer::Speed {
-        speed_m_s: speed,
-        leaf_temp_c: temp_at(speed)?,
-        target_c,
-        ceiling_m_s: ceiling,
-    })
-}
-
-/// Bisection on a predicate that is `p(a)` at `a` and `!p(a)` at `b`; returns the final (a, b) ends,
-/// each still on its own side, within 10⁻⁶ m s⁻¹.
-fn bisect(mut a: f64, mut b: f64, mut p: impl FnMut(f64) -> Result<bool>) -> Result<(f64, f64)> {
-    let side_a = p(a)?;
-    while (b - a).abs() > 1e-6 {
-        let mid = 0.5 * (a + b);
-        if p(mid)? == side_a {
-            a = mid;
-        } else {
-            b = mid;
+            ceiling_m_s: ceiling(0.0)?,
+        },
+        SpeedSearch::Least { speed_m_s, value } => WindAnswer::Speed {
+            speed_m_s,
+            leaf_temp_c: value,
+            target_c,
+            ceiling_m_s: ceiling(speed_m_s)?,
+        },
+        SpeedSearch::Never { value_at_max } => {
+            WindAnswer::Unreachable(if case.air.temp_c >= target_c {
+                Unreachable::AirTooHot {
+                    air_temp_c: case.air.temp_c,
+                    target_c,
+                    leaf_temp_at_max_c: value_at_max,
+                    leaf_cooler_than_air: leaf_temp_c(case)? < case.air.temp_c,
+                }
+            } else {
+                Unreachable::BeyondSearch {
+                    max_speed_m_s: max_speed,
+                    leaf_temp_at_max_c: value_at_max,
+                    target_c,
+                }
+            })
         }
-    }
-    Ok((a, b))
+    })
 }

@@ -152,6 +152,14 @@ impl PlateSide {
 /// Ra = (0.54/0.15)^{12} ≈ 4.7 × 10⁶.
 pub const UNSTABLE_BRANCH_CROSSING_RA: f64 = 4_738_381.338_321_6;
 
+/// Nusselt number of pure conduction from one face of a flat leaf into still air, on L = A_s/P \[–\].
+///
+/// A disk of diameter D on the surface of a semi-infinite medium has the conduction shape factor
+/// S = 2D (\[Incropera\] Table 4.1; from memory of the table's case), so q = 2 D k ΔT per face and
+/// h = 8k/(πD); on the disk's L = A_s/P = D/4 that is Nu_L = 2/π. The engine applies it to any
+/// outline through its A_s/P — an approximation that only matters in nearly still air.
+pub const CONDUCTION_NUSSELT_PER_FACE: f64 = 2.0 / std::f64::consts::PI;
+
 /// Average Nusselt (or Sherwood) number of free convection from one face of a horizontal plate \[–\].
 ///
 /// - `rayleigh`: Ra = Gr Pr (or Gr Sc for vapour) on L = A_s/P \[–\] (≥ 0); `side`: see [`PlateSide`].
@@ -159,18 +167,37 @@ pub const UNSTABLE_BRANCH_CROSSING_RA: f64 = 4_738_381.338_321_6;
 /// Equations (\[Incropera\] 7th ed.): unstable side Nu = 0.54 Ra^{1/4} (eq. 9.30, 10⁴–10⁷) and
 /// Nu = 0.15 Ra^{1/3} (eq. 9.31, 10⁷–10¹¹); stable side Nu = 0.52 Ra^{1/5} (eq. 9.32, 10⁴–10⁹;
 /// the 6th ed. gave 0.27 Ra^{1/4}, which agrees within 1 % near Ra = 4 × 10⁵).
-/// Deviations, both deliberate: the unstable branches switch where they cross (Ra ≈ 4.7 × 10⁶,
-/// Nu = max of the two) so the value is continuous; and below the correlations' lower limits — where
-/// small leaves at small temperature differences usually are — the laminar power laws are
-/// extrapolated, which tends to zero smoothly as Ra → 0 (the Stable branch then exceeds the
-/// Unstable one below Ra ≈ 1, where both are far below forced convection at any air movement).
+///
+/// Deviations, all deliberate:
+/// - each law Nu = C Ra^n is joined to the conduction limit Nu_c ([`CONDUCTION_NUSSELT_PER_FACE`])
+///   by the Churchill–Usagi blend with exponent 1/n, Nu = (Nu_c^{1/n} + C^{1/n} Ra)^n. Above
+///   Ra ≈ 10³ this differs from the correlation by less than 0.1 %; as Ra → 0 it tends to the
+///   conduction limit with a slope linear in Ra (the regular low-Ra behaviour) instead of the
+///   power law's infinite slope at Ra = 0, which would otherwise give a still leaf at air
+///   temperature spurious extra balance points;
+/// - the unstable branches switch where they cross (Ra ≈ 4.7 × 10⁶), continuous within 10⁻⁵;
+/// - below the correlations' lower limits — where small leaves at small temperature differences
+///   usually are — the blended laws are extrapolated.
+///
+/// ```
+/// use leafwind_physics::convection::{PlateSide, free_nusselt, CONDUCTION_NUSSELT_PER_FACE};
+/// assert_eq!(free_nusselt(0.0, PlateSide::Unstable), CONDUCTION_NUSSELT_PER_FACE);
+/// let ra: f64 = 1.0e6; // well inside eq. 9.30's range: within 10⁻⁶ of 0.54 Ra^¼
+/// assert!((free_nusselt(ra, PlateSide::Unstable) / (0.54 * ra.powf(0.25)) - 1.0).abs() < 1e-6);
+/// ```
 #[must_use]
 pub fn free_nusselt(rayleigh: f64, side: PlateSide) -> f64 {
     let ra = rayleigh.max(0.0);
+    let c = CONDUCTION_NUSSELT_PER_FACE;
     match side {
-        PlateSide::Unstable if ra > UNSTABLE_BRANCH_CROSSING_RA => 0.15 * cube_root(ra), // eq. 9.31
-        PlateSide::Unstable => 0.54 * ra.sqrt().sqrt(),                                  // eq. 9.30
-        PlateSide::Stable => 0.52 * fifth_root(ra), // eq. 9.32 (7th ed.)
+        // eq. 9.31: (c³ + 0.15³ Ra)^{1/3}
+        PlateSide::Unstable if ra > UNSTABLE_BRANCH_CROSSING_RA => {
+            cube_root(c * c * c + 0.003_375 * ra)
+        }
+        // eq. 9.30: (c⁴ + 0.54⁴ Ra)^{1/4}
+        PlateSide::Unstable => (c * c * c * c + 0.085_030_56 * ra).sqrt().sqrt(),
+        // eq. 9.32 (7th ed.): (c⁵ + 0.52⁵ Ra)^{1/5}
+        PlateSide::Stable => fifth_root(c * c * c * c * c + 0.038_020_403_2 * ra),
     }
 }
 
@@ -379,7 +406,7 @@ pub fn leaf_convection(
     let g_forced = dv_c * sh_f / d;
     let face = |upper: bool| {
         let side = PlateSide::of_face(upper, leaf_air_diff_k);
-        let nu_n = free_nusselt(gr_free * props.prandtl, side);
+        let (nu_n, n_eff) = free_nusselt_with_exponent(gr_free * props.prandtl, side);
         let sh_n = free_nusselt(gr_free * props.schmidt, side);
         let h_free = k * nu_n / free_length;
         let g_free = dv_c * sh_n / free_length;
@@ -390,7 +417,7 @@ pub fn leaf_convection(
             nusselt_forced: nu_f,
             nusselt_free: nu_n,
             heat_free_w_m2_k: h_free,
-            free_exponent: free_exponent(gr_free * props.prandtl, side),
+            free_exponent: n_eff,
         }
     };
     let gr_d = gr_free * (d / free_length).powi(3);
@@ -403,14 +430,25 @@ pub fn leaf_convection(
     }
 }
 
-/// The exponent n of Ra in the [`free_nusselt`] branch in use (Nu ∝ Ra^n ∝ |ΔT|^n).
+/// The local exponent d ln Nu / d ln Ra of [`free_nusselt`] \[–\] (so h_N ∝ |ΔT|^n locally):
+/// n (1 − (Nu_c/Nu)^{1/n}) for the blended law of exponent n — 0 in the conduction limit, n at
+/// large Ra.
 #[must_use]
 pub fn free_exponent(rayleigh: f64, side: PlateSide) -> f64 {
-    match side {
-        PlateSide::Unstable if rayleigh > UNSTABLE_BRANCH_CROSSING_RA => 1.0 / 3.0,
-        PlateSide::Unstable => 0.25,
-        PlateSide::Stable => 0.2,
-    }
+    free_nusselt_with_exponent(rayleigh, side).1
+}
+
+/// [`free_nusselt`] and [`free_exponent`] together (one evaluation).
+#[must_use]
+pub fn free_nusselt_with_exponent(rayleigh: f64, side: PlateSide) -> (f64, f64) {
+    let (n, inverse) = match side {
+        PlateSide::Unstable if rayleigh > UNSTABLE_BRANCH_CROSSING_RA => (1.0 / 3.0, 3),
+        PlateSide::Unstable => (0.25, 4),
+        PlateSide::Stable => (0.2, 5),
+    };
+    let nu = free_nusselt(rayleigh, side);
+    let ratio = CONDUCTION_NUSSELT_PER_FACE / nu;
+    (nu, n * (1.0 - ratio.powi(inverse)))
 }
 
 impl FaceConductance {
@@ -465,11 +503,25 @@ mod tests {
     }
 
     #[test]
+    fn free_nusselt_blend_keeps_the_correlations_above_ra_1e3() {
+        for ra in [1.0e3, 1.0e4, 1.0e5, 1.0e6] {
+            let u = free_nusselt(ra, PlateSide::Unstable) / (0.54 * ra.powf(0.25));
+            let s = free_nusselt(ra, PlateSide::Stable) / (0.52 * ra.powf(0.2));
+            assert!(
+                (u - 1.0).abs() < 1e-3 && (s - 1.0).abs() < 1e-3,
+                "{ra}: {u} {s}"
+            );
+        }
+        let big = 1.0e9;
+        assert!((free_nusselt(big, PlateSide::Unstable) / (0.15 * big.cbrt()) - 1.0).abs() < 1e-6);
+    }
+
+    #[test]
     fn free_nusselt_is_continuous_where_branches_cross() {
         let cross = (0.54f64 / 0.15).powi(12);
         let a = free_nusselt(cross * (1.0 - 1e-9), PlateSide::Unstable);
         let b = free_nusselt(cross * (1.0 + 1e-9), PlateSide::Unstable);
-        assert!((a - b).abs() < 1e-6 * a);
+        assert!((a - b).abs() < 1e-5 * a);
     }
 
     #[test]

@@ -39,11 +39,30 @@ use crate::transpiration::{
 pub const RESIDUAL_TOLERANCE_W_M2: f64 = 1e-7;
 
 /// Residual tolerance of map and sweep cells \[W m⁻²\]: with a total conductance of at least
-/// ~10 W m⁻² K⁻¹ this keeps each cell within 10⁻⁵ K of the fully converged leaf temperature.
-pub const GRID_RESIDUAL_TOLERANCE_W_M2: f64 = 1e-4;
+/// ~10 W m⁻² K⁻¹ this keeps each cell within 10⁻⁴ K of the fully converged leaf temperature,
+/// a hundred times finer than the map shows.
+pub const GRID_RESIDUAL_TOLERANCE_W_M2: f64 = 1e-3;
 
 /// The leaf temperature is sought within this many kelvin of the air temperature \[K\].
-pub const SEARCH_HALF_WIDTH_K: f64 = 120.0;
+///
+/// Wide enough for the corner of the valid domain where a black, closed, dry leaf in still air
+/// takes 1400 W m⁻² on both faces (about +170 K from the air); such leaves are far outside the
+/// property fits' range and are reported, not refused (`LeafSolution::outside_property_range`).
+pub const SEARCH_HALF_WIDTH_K: f64 = 250.0;
+
+/// Air speed \[m s⁻¹\] below which the balance may hold at more than one leaf temperature.
+///
+/// In nearly still air free convection carries the exchange, and it strengthens as a transpiring
+/// leaf cools below the air (the cold lower face sheds a plume): a positive feedback that can give
+/// a second, cooler balance point beside one near air temperature. Moving air makes the residual
+/// decrease monotonically and the root unique (checked over 10⁶ random cases by
+/// `examples/closure_check.rs`). Below this speed the solver reports the balance point reached
+/// from the linearised estimate.
+pub const NEAR_STILL_AIR_M_S: f64 = 0.1;
+
+/// The lowest leaf temperature sought \[K\]: −120 °C, well above the pole of the FAO-56
+/// saturation formula at −237.3 °C.
+const SEARCH_MIN_K: f64 = 153.15;
 
 /// dλ/dT of the molar latent heat \[J mol⁻¹ K⁻¹\]: −2.361 × 10³ J kg⁻¹ K⁻¹ × M_w (FAO-56 Annex 3,
 /// eq. 3-1, as [`crate::air::latent_heat_j_kg`]).
@@ -286,9 +305,10 @@ impl PreparedLeaf {
 
     /// Solves the balance exactly for the leaf temperature \[K\].
     ///
-    /// Safeguarded Newton ([`crate::solver::solve_decreasing`]) from the air temperature; the
-    /// residual decreases monotonically with T_L (emission, sensible and latent
-    /// losses all rise with it), so the bracketed root is unique.
+    /// Safeguarded Newton ([`crate::solver::solve_decreasing`]) from the air temperature; in moving
+    /// air the residual decreases monotonically with T_L (emission, sensible and latent
+    /// losses all rise with it), so the bracketed root is unique; below [`NEAR_STILL_AIR_M_S`] see
+    /// there.
     ///
     /// # Errors
     /// [`crate::PhysicsError::NoBracket`] should the root lie more than 120 K from the air.
@@ -360,13 +380,58 @@ impl PreparedLeaf {
         )
     }
 
+    /// The leaf temperatures \[K\] within which the exact solve seeks its root.
+    #[must_use]
+    pub fn search_domain_k(&self) -> (f64, f64) {
+        (
+            (self.air_temp_k - SEARCH_HALF_WIDTH_K).max(SEARCH_MIN_K),
+            self.air_temp_k + SEARCH_HALF_WIDTH_K,
+        )
+    }
+
+    /// As [`PreparedLeaf::solve_temperature_k`], then one Newton correction from the last
+    /// evaluation, t − f/f′, which costs no further evaluation and takes the error from the
+    /// tolerance's order to its square. For sweeps and maps, where neighbouring cells extrapolate
+    /// from each other's answers.
+    ///
+    /// # Errors
+    /// As [`PreparedLeaf::solve_exact`].
+    pub fn solve_temperature_polished_k(
+        &self,
+        guess_k: f64,
+        residual_tolerance_w_m2: f64,
+    ) -> Result<f64> {
+        let guess = if guess_k.is_finite() {
+            guess_k
+        } else {
+            self.default_guess_k()
+        };
+        let mut last = (f64::NAN, 0.0, -1.0);
+        let (t, _) = solve_decreasing(
+            |t| {
+                let terms = self.terms(t);
+                last = (t, terms.residual_w_m2, terms.residual_slope_w_m2_k);
+                (
+                    terms.residual_w_m2,
+                    terms.residual_slope_w_m2_k,
+                    terms.residual_curvature_w_m2_k2,
+                )
+            },
+            guess,
+            &self.solver_settings(residual_tolerance_w_m2),
+            "leaf temperature",
+        )?;
+        let (x, f, d) = last;
+        Ok(if x == t && d < 0.0 { t - f / d } else { t })
+    }
+
     fn solver_settings(&self, residual_tolerance_w_m2: f64) -> SolverSettings {
         SolverSettings {
             residual_tolerance: residual_tolerance_w_m2,
             max_iterations: 100,
             initial_step: 0.01,
-            min_x: self.air_temp_k - SEARCH_HALF_WIDTH_K,
-            max_x: self.air_temp_k + SEARCH_HALF_WIDTH_K,
+            min_x: self.search_domain_k().0,
+            max_x: self.search_domain_k().1,
         }
     }
 
@@ -468,6 +533,9 @@ pub struct LeafSolution {
     pub linearised: LinearisedLeaf,
     /// How the exact solve went.
     pub solver: SolverReport,
+    /// Whether the leaf temperature lies outside the range of the property fits
+    /// ([`crate::air::AIR_TEMP_RANGE_C`]), so that they were extrapolated.
+    pub outside_property_range: bool,
 }
 
 impl LeafSolution {
@@ -548,6 +616,7 @@ pub fn solve_prepared(prepared: &PreparedLeaf) -> Result<LeafSolution> {
         effective_bl_thickness_m: finite(effective_thickness_m(k, 0.5 * conv.heat_total_w_m2_k())),
         linearised: prepared.linearised(),
         solver,
+        outside_property_range: !crate::air::AIR_TEMP_RANGE_C.contains(leaf_temp_c),
     })
 }
 

@@ -980,10 +980,11 @@ impl FanSizing {
                         String::new()
                     };
                     format!(
-                        "{} fans of the {} kind ({} rows of {}{spacing}) give at least {:.2} m/s at the canopy top (range {:.2}–{:.2} m/s) outside the near-fan zones: an estimate to verify with an anemometer.",
+                        "{} fans of the {} kind ({} {} of {}{spacing}) give at least {:.2} m/s at the canopy top (range {:.2}–{:.2} m/s) outside the near-fan zones: an estimate to verify with an anemometer.",
                         l.fan_count(),
                         l.fan.label,
                         l.rows,
+                        if l.rows == 1 { "row" } else { "rows" },
                         l.fans_per_row,
                         e.min_canopy_top.typical_m_s,
                         e.min_canopy_top.low_m_s,

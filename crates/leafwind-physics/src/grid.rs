@@ -2,7 +2,8 @@
 //!
 //! Each row (one leaf size) is swept in speed, each solve starting from its neighbour's answer, so a
 //! cell needs one or two Newton steps; the answer does not depend on the start (the bracketed root
-//! is unique). Cells are solved to [`GRID_RESIDUAL_TOLERANCE_W_M2`]. Rows are independent, so callers may solve them in parallel with [`leaf_temp_row`].
+//! is unique in moving air). Cells are solved to [`GRID_RESIDUAL_TOLERANCE_W_M2`] and given one
+//! free Newton correction ([`PreparedLeaf::solve_temperature_polished_k`]). Rows are independent, so callers may solve them in parallel with [`leaf_temp_row`].
 
 use crate::case::{AIR_SPEED_RANGE_M_S, LEAF_DIMENSION_RANGE_M, LeafCase};
 use crate::constants::ZERO_CELSIUS_K;
@@ -107,15 +108,16 @@ pub fn leaf_temp_row(case: &LeafCase, dimension_m: f64, speeds_m_s: &[f64]) -> R
     let base = PreparedLeaf::new(&case.with_dimension(dimension_m))?;
     for (i, &u) in speeds_m_s.iter().enumerate() {
         let prepared = base.at_speed(u)?;
-        // Start from the previous cells, extrapolated (quadratically once three are known).
+        // Start from the previous cells, extrapolated (cubically once four are known).
         let guess_k = match i {
             0 => f64::NAN,
             1 => out[0],
             2 => 2.0 * out[1] - out[0],
-            _ => 3.0 * out[i - 1] - 3.0 * out[i - 2] + out[i - 3],
+            3 => 3.0 * out[2] - 3.0 * out[1] + out[0],
+            _ => 4.0 * out[i - 1] - 6.0 * out[i - 2] + 4.0 * out[i - 3] - out[i - 4],
         } + ZERO_CELSIUS_K;
-        let (leaf_temp_k, _) =
-            prepared.solve_temperature_k(guess_k, GRID_RESIDUAL_TOLERANCE_W_M2)?;
+        let leaf_temp_k =
+            prepared.solve_temperature_polished_k(guess_k, GRID_RESIDUAL_TOLERANCE_W_M2)?;
         out.push(leaf_temp_k - ZERO_CELSIUS_K);
     }
     Ok(out)

@@ -127,10 +127,11 @@ pub fn solve_decreasing(
             break;
         }
         if x_new == x || iterations >= settings.max_iterations {
+            // No sign change between the start and the end of the domain reached.
             let (low, high) = if fx > 0.0 {
-                (x, settings.max_x)
+                (clamp(guess), settings.max_x)
             } else {
-                (settings.min_x, x)
+                (settings.min_x, clamp(guess))
             };
             return Err(PhysicsError::NoBracket {
                 quantity,

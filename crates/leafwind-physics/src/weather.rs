@@ -120,6 +120,8 @@ const REQUIRED: [&str; 5] = ["time", "air_temp_c", "rh_pct", "wind_m_s", "shortw
 /// assert_eq!(w.errors[0].column, "air_temp_c");
 /// ```
 pub fn parse_csv(text: &str) -> std::result::Result<WeatherImport, ImportError> {
+    // A byte-order mark belongs to the file, not to its first line's content.
+    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
     let mut lines = text
         .lines()
         .enumerate()

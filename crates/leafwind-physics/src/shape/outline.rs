@@ -99,7 +99,9 @@ impl Outline {
         // self-crossing figure of eight also has zero signed area but is reported as crossing).
         let hull = hull_points(&pts);
         let perimeter = perimeter(&pts);
-        let zero_area = |area: f64| area <= ZERO_AREA_RELATIVE * perimeter * perimeter;
+        // Not finite (coordinates so large that the area overflows) counts as no usable area.
+        let zero_area =
+            |area: f64| !area.is_finite() || area <= ZERO_AREA_RELATIVE * perimeter * perimeter;
         if hull.len() < 3 || zero_area(signed_area(&hull).abs()) {
             return Err(ShapeError::ZeroArea {
                 area_m2: signed_area(&pts).abs(),

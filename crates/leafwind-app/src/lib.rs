@@ -8,6 +8,9 @@
 //! | [`output`] | flat, unit-named records of engine results for JSON and CSV |
 //! | [`gui`] | the eframe window: document, panels, plots |
 
+pub mod canopy_scenario;
 pub mod cli;
+pub mod fans_scenario;
 pub mod gui;
 pub mod output;
+pub mod report;

@@ -5,6 +5,9 @@ use std::process::ExitCode;
 
 use clap::{Parser, Subcommand};
 
+pub mod canopy;
+pub mod fans;
+pub mod report;
 pub mod shape;
 pub mod solve;
 
@@ -32,6 +35,13 @@ pub enum Command {
     /// Measure leaf outlines (CSV, mm): area, size along and across the wind, effective dimension.
     #[command(long_about = shape::LONG_ABOUT)]
     Shape(shape::ShapeArgs),
+    /// Run a scenario's canopy: hottest leaf, least fan air speed and shade, design day, weather.
+    Canopy(canopy::CanopyArgs),
+    /// Estimate the air speed a circulation-fan layout gives at the crop, and size fans for a target.
+    Fans(fans::FansArgs),
+    /// Write the grower report (HTML with its plots, and CSV tables) of a scenario into a folder.
+    #[command(long_about = report::LONG_ABOUT)]
+    Report(report::ReportArgs),
 }
 
 /// Parses the arguments and runs; returns the process exit code.
@@ -41,6 +51,9 @@ pub fn main() -> ExitCode {
     match cli.command {
         Some(Command::Solve(args)) => report(solve::run(&args, &mut std::io::stdout().lock())),
         Some(Command::Shape(args)) => report(shape::run(&args, &mut std::io::stdout().lock())),
+        Some(Command::Canopy(args)) => report(canopy::run(&args, &mut std::io::stdout().lock())),
+        Some(Command::Fans(args)) => report(fans::run(&args, &mut std::io::stdout().lock())),
+        Some(Command::Report(args)) => report(report::run(&args, &mut std::io::stdout().lock())),
         None => report(crate::gui::run_window(crate::gui::WindowOptions {
             scenario: cli.scenario,
             screenshot: cli.screenshot,

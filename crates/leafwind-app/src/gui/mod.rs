@@ -1,10 +1,37 @@
 //! The desktop window.
+//!
+//! | module | what it owns |
+//! |---|---|
+//! | [`document`] | the scenario document (saved, RON) |
+//! | [`compute`] | derived results (never saved): leaf, sweep, map, boundary layer |
+//! | [`worker`] | background jobs that keep the frame free |
+//! | [`prefs`] | UI preferences persisted by eframe |
+//! | [`commands`] | the command enum (menu text, tooltip) |
+//! | [`units`] | SI ↔ imperial for every number shown |
+//! | [`fields`] | the numeric input widget with range check |
+//! | [`panels`] | one panel per file |
+//! | [`contour`] | marching squares for the map's limit lines |
+//! | [`export`] | CSV of each plot's data |
+//! | [`app`] | the app and its command handler |
 
 use std::path::PathBuf;
 use std::process::ExitCode;
 
 use anyhow::anyhow;
-use leafwind_physics::{LeafCase, LeafSolution, solve_leaf};
+
+pub mod app;
+pub mod commands;
+pub mod compute;
+pub mod contour;
+pub mod document;
+pub mod export;
+pub mod fields;
+pub mod panels;
+pub mod prefs;
+pub mod units;
+pub mod worker;
+
+pub use app::LeafwindApp;
 
 /// How the window is started.
 #[derive(Debug, Clone, Default)]
@@ -18,48 +45,32 @@ pub struct WindowOptions {
 /// Opens the window and runs until it is closed.
 ///
 /// # Errors
-/// When the window cannot be created (no display).
+/// When the window cannot be created (no display), or the screenshot could not be saved.
 pub fn run_window(options: WindowOptions) -> anyhow::Result<ExitCode> {
     let native = eframe::NativeOptions {
         viewport: egui::ViewportBuilder::default()
             .with_title("Leafwind")
-            .with_inner_size([1280.0, 820.0]),
+            .with_inner_size([1400.0, 900.0])
+            .with_min_inner_size([900.0, 600.0]),
+        persist_window: options.screenshot.is_none(),
         ..Default::default()
     };
-    let _ = options;
+    // The app reports a failed screenshot here; read once the window has closed.
+    let failure = std::sync::Arc::new(std::sync::Mutex::new(None::<String>));
+    let slot = failure.clone();
+    let WindowOptions {
+        scenario,
+        screenshot,
+    } = options;
     eframe::run_native(
         "Leafwind",
         native,
-        Box::new(|_cc| Ok(Box::new(MinimalApp::new()))),
+        Box::new(move |cc| Ok(Box::new(LeafwindApp::new(cc, scenario, screenshot, slot)))),
     )
     .map_err(|e| anyhow!("could not open the window: {e}"))?;
-    Ok(ExitCode::SUCCESS)
-}
-
-/// One solved leaf on screen.
-struct MinimalApp {
-    case: LeafCase,
-    solution: Option<LeafSolution>,
-}
-
-impl MinimalApp {
-    fn new() -> Self {
-        let case = LeafCase::default();
-        Self {
-            solution: solve_leaf(&case).ok(),
-            case,
-        }
-    }
-}
-
-impl eframe::App for MinimalApp {
-    fn ui(&mut self, ui: &mut egui::Ui, _frame: &mut eframe::Frame) {
-        egui::CentralPanel::default().show(ui, |ui| {
-            ui.heading("Leafwind");
-            ui.label(format!("Air {:.1} °C", self.case.air.temp_c));
-            if let Some(s) = &self.solution {
-                ui.label(format!("Leaf {:.1} °C", s.leaf_temp_c));
-            }
-        });
+    let failed = failure.lock().ok().and_then(|f| f.clone());
+    match failed {
+        Some(e) => Err(anyhow!(e)),
+        None => Ok(ExitCode::SUCCESS),
     }
 }

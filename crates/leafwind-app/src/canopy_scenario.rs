@@ -1,0 +1,329 @@
+//! The canopy section of a scenario — the crop's structure, the site and moment, the light, an
+//! optional greenhouse, crop limit, design day and weather file — and the run that turns it into
+//! the sizing answers and time series. Shared by `leafwind canopy`, the window and the report.
+//!
+//! The section reuses the scenario's leaf case: its air is the air at the canopy top (inside the
+//! greenhouse when there is one, unless the inside air is computed from ventilation), its air speed
+//! is the canopy-top (fan) air speed, its leaf is the
+//! crop's leaf, and its heat limit and margin are used unless a crop preset is named.
+
+use std::path::{Path, PathBuf};
+
+use anyhow::{Context, Result, anyhow};
+use leafwind_physics::{Humidity, LeafCase};
+use leafwind_physics::canopy::{
+    self, CanopyCase, CanopyLight, CanopySolution, CanopyStructure, SpeedAnswer,
+};
+use leafwind_physics::crops::{self, HeatLimit, LimitKind};
+use leafwind_physics::design_day::{self, DesignDay, Environment, GreenhouseSetup, HourlySeries, SeriesCase};
+use leafwind_physics::greenhouse::{
+    self, Cover, GreenhouseCase, InsideAir, Outside, ShadeAnswer, VENTILATION_DEFAULT_M3_M2_S,
+};
+use leafwind_physics::sun::{self, DateTime, HorizontalShortwave, Site};
+use leafwind_physics::weather;
+use serde::{Deserialize, Serialize};
+
+/// Default upper end of the canopy-top air speed search \[m s⁻¹\] (common practice, no source:
+/// beyond any circulation fan's effect at the crop).
+pub const CANOPY_SEARCH_MAX_DEFAULT_M_S: f64 = 5.0;
+
+fn default_search_max() -> f64 {
+    CANOPY_SEARCH_MAX_DEFAULT_M_S
+}
+
+/// Light above the canopy (or above the greenhouse cover).
+#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize, Deserialize)]
+pub enum LightAbove {
+    /// Clear sky from the sun position (the ASHRAE clear-sky model in the engine's `sun` module).
+    #[default]
+    ClearSky,
+    /// Measured beam and diffuse on the horizontal \[W m⁻²\].
+    Measured {
+        /// Beam on the horizontal \[W m⁻²\].
+        beam_w_m2: f64,
+        /// Diffuse on the horizontal \[W m⁻²\].
+        diffuse_w_m2: f64,
+    },
+    /// Measured global on the horizontal \[W m⁻²\], split into beam and diffuse by Erbs et al.
+    Global {
+        /// Global horizontal irradiance \[W m⁻²\].
+        global_w_m2: f64,
+    },
+}
+
+/// Where the air inside the greenhouse comes from.
+#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize, Deserialize)]
+pub enum InsideMode {
+    /// The scenario's own air (temperature and humidity) is the inside air, as measured.
+    #[default]
+    ScenarioAir,
+    /// The inside air follows from a steady ventilation balance with the outside air.
+    Ventilated {
+        /// Ventilation rate per floor area \[m³ s⁻¹ m⁻²\].
+        rate_m3_m2_s: f64,
+    },
+}
+
+/// The greenhouse around the crop.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct GreenhouseSection {
+    /// The cover: transmittance, temperature, heat loss.
+    pub cover: Cover,
+    /// Shade screen (or whitewash) fraction of light held back \[–\].
+    #[serde(default)]
+    pub shade_fraction: f64,
+    /// Outside air temperature \[°C\].
+    pub outside_air_temp_c: f64,
+    /// Outside humidity.
+    pub outside_humidity: Humidity,
+    /// The inside air: the scenario's, or from the ventilation balance.
+    #[serde(default)]
+    pub inside: InsideMode,
+}
+
+impl GreenhouseSection {
+    /// The engine's inside-air choice for a scenario whose air is `case`'s.
+    #[must_use]
+    pub fn inside_air(&self, case: &LeafCase) -> InsideAir {
+        match self.inside {
+            InsideMode::ScenarioAir => InsideAir::Given {
+                temp_c: case.air.temp_c,
+                humidity: case.air.humidity,
+            },
+            InsideMode::Ventilated { rate_m3_m2_s } => InsideAir::Ventilated { rate_m3_m2_s },
+        }
+    }
+}
+
+/// A crop limit from the built-in table (`assets/crops.ron` mirrors it).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct CropChoice {
+    /// Crop name, e.g. "tomato".
+    pub crop: String,
+    /// Growth stage, or the start of its name.
+    pub stage: String,
+}
+
+/// The canopy section of a scenario.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct CanopySection {
+    /// Leaf area index, height, layers, leaf angles, wind attenuation.
+    pub structure: CanopyStructure,
+    /// Latitude, longitude, UTC offset, altitude.
+    pub site: Site,
+    /// The moment of the canopy profile (local clock time).
+    pub when: DateTime,
+    /// Light above the canopy or the cover.
+    #[serde(default)]
+    pub light: LightAbove,
+    /// The greenhouse, if the crop is under cover.
+    #[serde(default)]
+    pub greenhouse: Option<GreenhouseSection>,
+    /// A built-in crop limit; without it the scenario's own limit is taken as a leaf (tissue) limit.
+    #[serde(default)]
+    pub crop: Option<CropChoice>,
+    /// A design day to run hour by hour.
+    #[serde(default)]
+    pub design_day: Option<DesignDay>,
+    /// An hourly weather CSV (path relative to the scenario file) to run hour by hour.
+    #[serde(default)]
+    pub weather_csv: Option<PathBuf>,
+    /// Upper end of the canopy-top air speed search \[m s⁻¹\].
+    #[serde(default = "default_search_max")]
+    pub max_search_speed_m_s: f64,
+}
+
+impl Default for CanopySection {
+    fn default() -> Self {
+        Self {
+            structure: CanopyStructure::default(),
+            site: Site::default(),
+            when: DateTime::date(2026, 7, 21).at(14, 0),
+            light: LightAbove::ClearSky,
+            greenhouse: None,
+            crop: None,
+            design_day: None,
+            weather_csv: None,
+            max_search_speed_m_s: CANOPY_SEARCH_MAX_DEFAULT_M_S,
+        }
+    }
+}
+
+/// What a canopy run found.
+#[derive(Debug, Clone)]
+pub struct CanopyRun {
+    /// Sun elevation at the moment \[rad\] (negative below the horizon).
+    pub sun_elevation_rad: f64,
+    /// Sun azimuth at the moment \[rad\], clockwise from north.
+    pub sun_azimuth_rad: f64,
+    /// Light above the canopy or cover.
+    pub shortwave_above: HorizontalShortwave,
+    /// The limit used.
+    pub limit: HeatLimit,
+    /// Margin kept below it \[K\].
+    pub margin_k: f64,
+    /// Inside air temperature when under cover \[°C\].
+    pub inside_air_temp_c: Option<f64>,
+    /// The canopy profile.
+    pub canopy: CanopySolution,
+    /// Least canopy-top air speed for the hottest leaf.
+    pub speed: SpeedAnswer,
+    /// Least shade fraction (under cover only).
+    pub shade: Option<ShadeAnswer>,
+    /// Hour by hour over the design day, if the section has one.
+    pub design_day: Option<HourlySeries>,
+    /// Hour by hour over the weather file, if the section names one, with its bad rows.
+    pub weather: Option<(HourlySeries, Vec<weather::RowError>)>,
+}
+
+impl CanopyRun {
+    /// Why there is no shade answer, when there is none.
+    #[must_use]
+    pub fn shade_reason(&self) -> String {
+        match &self.shade {
+            Some(s) => s.sentence(),
+            None => "Shade sizing needs a greenhouse or shade-house cover in the scenario; this crop is in the open field.".to_owned(),
+        }
+    }
+}
+
+impl CanopySection {
+    /// The limit in use: the named crop's, or the scenario's own as a leaf limit.
+    ///
+    /// # Errors
+    /// An unknown crop or stage (the message lists the valid ones).
+    pub fn limit(&self, own_limit_c: f64) -> Result<HeatLimit> {
+        match &self.crop {
+            Some(c) => Ok(crops::find(&c.crop, &c.stage)?.clone()),
+            None => Ok(HeatLimit::user("this scenario's crop", "as set", own_limit_c, LimitKind::Tissue)),
+        }
+    }
+
+    /// The light above at the moment, and the sun.
+    fn light(&self) -> Result<(sun::SunPosition, HorizontalShortwave)> {
+        let pos = sun::sun_position(&self.site, &self.when)?;
+        let light = match self.light {
+            LightAbove::ClearSky => sun::ashrae_clear_sky(self.when.month, pos.elevation_rad),
+            LightAbove::Measured { beam_w_m2, diffuse_w_m2 } => HorizontalShortwave { beam_w_m2, diffuse_w_m2 },
+            LightAbove::Global { global_w_m2 } => {
+                sun::split_global(global_w_m2, self.when.day_of_year(), pos.elevation_rad)?
+            }
+        };
+        Ok((pos, light))
+    }
+
+    /// Runs the section for a scenario's leaf case, limit and margin. `scenario_dir` resolves a
+    /// relative weather file.
+    ///
+    /// # Errors
+    /// Invalid inputs (named), an unreadable weather file (named with its path).
+    pub fn run(
+        &self,
+        case: &LeafCase,
+        own_limit_c: f64,
+        margin_k: f64,
+        scenario_dir: Option<&Path>,
+    ) -> Result<CanopyRun> {
+        let limit = self.limit(own_limit_c)?;
+        let (pos, shortwave) = self.light()?;
+        let elevation = pos.elevation_rad.max(0.0);
+        let target_limit = limit.limit_c;
+        let (canopy, inside, speed, shade) = match &self.greenhouse {
+            None => {
+                let cc = CanopyCase {
+                    air: case.air,
+                    leaf: case.leaf,
+                    upper_view: case.surroundings.upper_view,
+                    light: CanopyLight { sun_elevation_rad: elevation, shortwave },
+                    structure: self.structure,
+                    critical_reynolds: case.critical_reynolds,
+                    limit_c: Some(target_limit),
+                };
+                let sol = canopy::solve_canopy(&cc)?;
+                let speed = canopy::least_top_speed(&cc, target_limit, margin_k, self.max_search_speed_m_s)?;
+                (sol, None, speed, None)
+            }
+            Some(g) => {
+                let gc = GreenhouseCase {
+                    outside: Outside {
+                        air_temp_c: g.outside_air_temp_c,
+                        humidity: g.outside_humidity,
+                        pressure_kpa: case.air.pressure_kpa,
+                        sun_elevation_rad: elevation,
+                        shortwave,
+                    },
+                    cover: g.cover,
+                    shade_fraction: g.shade_fraction,
+                    inside: g.inside_air(case),
+                    canopy_top_speed_m_s: case.air.speed_m_s,
+                    leaf: case.leaf,
+                    structure: self.structure,
+                    turbulence_factor: case.air.turbulence_factor,
+                    critical_reynolds: case.critical_reynolds,
+                    limit_c: Some(target_limit),
+                };
+                let sol = greenhouse::solve_greenhouse(&gc)?;
+                let sizing = greenhouse::size(&gc, target_limit, margin_k, self.max_search_speed_m_s)?;
+                (sol.canopy, Some(sol.inside_air_temp_c), sizing.speed, Some(sizing.shade))
+            }
+        };
+        let series_case = self.series_case(case, &limit);
+        let design_day = match &self.design_day {
+            Some(day) => Some(design_day::run(day, &series_case)?),
+            None => None,
+        };
+        let weather = match &self.weather_csv {
+            Some(file) => {
+                let path = scenario_dir.map_or_else(|| file.clone(), |d| d.join(file));
+                let text = std::fs::read_to_string(&path)
+                    .with_context(|| format!("cannot read the weather file {}", path.display()))?;
+                let import = weather::parse_csv(&text)
+                    .map_err(|e| anyhow!("{e} in the weather file {}", path.display()))?;
+                let series = weather::run_series(&import.records, &series_case)?;
+                Some((series, import.errors))
+            }
+            None => None,
+        };
+        Ok(CanopyRun {
+            sun_elevation_rad: pos.elevation_rad,
+            sun_azimuth_rad: pos.azimuth_rad,
+            shortwave_above: shortwave,
+            limit,
+            margin_k,
+            inside_air_temp_c: inside,
+            canopy,
+            speed,
+            shade,
+            design_day,
+            weather,
+        })
+    }
+
+    /// The engine's hour-by-hour case for this section.
+    fn series_case(&self, case: &LeafCase, limit: &HeatLimit) -> SeriesCase {
+        SeriesCase {
+            site: self.site,
+            leaf: case.leaf,
+            structure: self.structure,
+            limit: limit.clone(),
+            environment: match &self.greenhouse {
+                None => Environment::OpenField,
+                Some(g) => Environment::Greenhouse(GreenhouseSetup {
+                    cover: g.cover,
+                    shade_fraction: g.shade_fraction,
+                    ventilation_m3_m2_s: match g.inside {
+                        InsideMode::Ventilated { rate_m3_m2_s } => rate_m3_m2_s,
+                        InsideMode::ScenarioAir => VENTILATION_DEFAULT_M3_M2_S,
+                    },
+                    canopy_top_speed_m_s: case.air.speed_m_s,
+                }),
+            },
+            wind_factor: 1.0,
+            turbulence_factor: case.air.turbulence_factor,
+            critical_reynolds: case.critical_reynolds,
+        }
+    }
+}

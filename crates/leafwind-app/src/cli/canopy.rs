@@ -1,0 +1,283 @@
+//! `leafwind canopy SCENARIO.ron [--json]`: the canopy profile, the hottest leaf, the sizing
+//! answers, and the design-day or weather series of a scenario's canopy section.
+
+use std::io::Write;
+use std::path::PathBuf;
+use std::process::ExitCode;
+
+use anyhow::{Result, anyhow};
+use clap::Args;
+use leafwind_physics::sun::{self, DateTime};
+use serde::Serialize;
+
+use crate::canopy_scenario::CanopyRun;
+use crate::gui::document::ScenarioDocument;
+use crate::output::finite;
+
+/// Arguments of `leafwind canopy`.
+#[derive(Debug, Clone, Args)]
+pub struct CanopyArgs {
+    /// The scenario file (RON) with a `canopy` section.
+    #[arg(value_name = "SCENARIO.ron")]
+    pub scenario: PathBuf,
+    /// Print JSON instead of text.
+    #[arg(long)]
+    pub json: bool,
+}
+
+/// One layer of the profile, from the top.
+#[derive(Debug, Clone, Serialize)]
+pub struct LayerRecord {
+    /// Index from the top (0 = top layer).
+    pub layer: usize,
+    /// Height of the layer's middle \[m\].
+    pub height_m: f64,
+    /// Leaf area above the layer's middle \[m² m⁻²\].
+    pub lai_above: f64,
+    /// Sunlit share of the layer's leaves \[–\].
+    pub sunlit_fraction: f64,
+    /// Air speed in the layer \[m s⁻¹\].
+    pub air_speed_m_s: f64,
+    /// Sunlit leaf temperature \[°C\] (null with the sun down).
+    pub sunlit_leaf_temp_c: Option<f64>,
+    /// Shaded leaf temperature \[°C\].
+    pub shaded_leaf_temp_c: f64,
+}
+
+/// One step of a time series.
+#[derive(Debug, Clone, Serialize)]
+pub struct StepRecord {
+    /// Local clock time, `YYYY-MM-DD HH:MM`.
+    pub time: String,
+    /// Sun elevation \[°\].
+    pub sun_elevation_deg: Option<f64>,
+    /// Sun azimuth \[°\] clockwise from north.
+    pub sun_azimuth_deg: Option<f64>,
+    /// Outside air temperature \[°C\].
+    pub air_temp_c: f64,
+    /// Inside air temperature under cover \[°C\].
+    pub inside_air_temp_c: Option<f64>,
+    /// Hottest leaf temperature \[°C\] (null when the hour failed; see `error`).
+    pub hottest_leaf_temp_c: Option<f64>,
+    /// Margin to the limit \[K\] (negative over it).
+    pub margin_k: Option<f64>,
+    /// Why the hour could not be solved.
+    pub error: Option<String>,
+}
+
+/// A time series and its totals.
+#[derive(Debug, Clone, Serialize)]
+pub struct SeriesRecord {
+    /// Each step.
+    pub steps: Vec<StepRecord>,
+    /// Hours with the compared temperature over the limit \[h\].
+    pub hours_over_limit: f64,
+    /// Degree-hours over the limit \[K h\].
+    pub degree_hours_over_limit: f64,
+    /// Smallest margin \[K\].
+    pub min_margin_k: Option<f64>,
+    /// Hours that failed.
+    pub failed_hours: usize,
+    /// Rows of the weather file that were rejected, as "line N, column C: reason".
+    pub rejected_rows: Vec<String>,
+}
+
+/// The whole answer of `leafwind canopy`.
+#[derive(Debug, Clone, Serialize)]
+pub struct CanopyRecord {
+    /// Scenario title.
+    pub title: String,
+    /// Sun elevation at the profile's moment \[°\].
+    pub sun_elevation_deg: f64,
+    /// Sun azimuth \[°\].
+    pub sun_azimuth_deg: f64,
+    /// The limit \[°C\].
+    pub limit_c: f64,
+    /// "air" or "tissue".
+    pub limit_kind: String,
+    /// Where the limit comes from.
+    pub limit_source: String,
+    /// Margin kept below the limit \[K\].
+    pub margin_required_k: f64,
+    /// Inside air under cover \[°C\].
+    pub inside_air_temp_c: Option<f64>,
+    /// Hottest leaf temperature \[°C\].
+    pub hottest_leaf_temp_c: f64,
+    /// Layer of the hottest leaf, from the top.
+    pub hottest_layer: usize,
+    /// Whether the hottest leaf is sunlit.
+    pub hottest_leaf_sunlit: bool,
+    /// Limit minus hottest leaf \[K\].
+    pub margin_k: f64,
+    /// Least canopy-top air speed \[m s⁻¹\]; null when there is none.
+    pub required_wind_m_s: Option<f64>,
+    /// The air-speed answer in words.
+    pub required_wind_reason: String,
+    /// Least shade fraction \[–\]; null when there is none (or no cover).
+    pub required_shade_fraction: Option<f64>,
+    /// The shade answer in words.
+    pub required_shade_fraction_reason: String,
+    /// The layers, top first.
+    pub layers: Vec<LayerRecord>,
+    /// Hour by hour over the design day.
+    pub design_day: Option<SeriesRecord>,
+    /// Hour by hour over the weather file.
+    pub weather: Option<SeriesRecord>,
+}
+
+fn time_text(t: &DateTime) -> String {
+    format!("{:04}-{:02}-{:02} {:02}:{:02}", t.year, t.month, t.day, t.hour, t.minute)
+}
+
+fn series_record(
+    series: &leafwind_physics::design_day::HourlySeries,
+    site: &sun::Site,
+    rejected: &[leafwind_physics::weather::RowError],
+) -> SeriesRecord {
+    let steps = series
+        .hours
+        .iter()
+        .map(|h| {
+            let pos = sun::sun_position(site, &h.time).ok();
+            StepRecord {
+                time: time_text(&h.time),
+                sun_elevation_deg: pos.and_then(|p| finite(p.elevation_rad.to_degrees())),
+                sun_azimuth_deg: pos.and_then(|p| finite(p.azimuth_rad.to_degrees())),
+                air_temp_c: h.air_temp_c,
+                inside_air_temp_c: h.inside_air_temp_c.and_then(finite),
+                hottest_leaf_temp_c: h.hottest_leaf_temp_c.and_then(finite),
+                margin_k: h.margin_k.and_then(finite),
+                error: h.error.clone(),
+            }
+        })
+        .collect();
+    SeriesRecord {
+        steps,
+        hours_over_limit: series.hours_over_limit,
+        degree_hours_over_limit: series.degree_hours_over_k_h,
+        min_margin_k: series.min_margin_k.and_then(finite),
+        failed_hours: series.failed_hours,
+        rejected_rows: rejected.iter().map(ToString::to_string).collect(),
+    }
+}
+
+impl CanopyRecord {
+    /// Flattens a run.
+    #[must_use]
+    pub fn new(title: &str, run: &CanopyRun, site: &sun::Site) -> Self {
+        let hot = &run.canopy.hottest;
+        Self {
+            title: title.to_owned(),
+            sun_elevation_deg: run.sun_elevation_rad.to_degrees(),
+            sun_azimuth_deg: run.sun_azimuth_rad.to_degrees(),
+            limit_c: run.limit.limit_c,
+            limit_kind: run.limit.kind.word().to_owned(),
+            limit_source: run.limit.source.to_string(),
+            margin_required_k: run.margin_k,
+            inside_air_temp_c: run.inside_air_temp_c.and_then(finite),
+            hottest_leaf_temp_c: hot.leaf_temp_c,
+            hottest_layer: hot.layer,
+            hottest_leaf_sunlit: hot.sunlit,
+            margin_k: run.limit.limit_c - hot.leaf_temp_c,
+            required_wind_m_s: run.speed.speed_m_s(),
+            required_wind_reason: run.speed.sentence(),
+            required_shade_fraction: run.shade.as_ref().and_then(|s| s.fraction()),
+            required_shade_fraction_reason: run.shade_reason(),
+            layers: run
+                .canopy
+                .layers
+                .iter()
+                .enumerate()
+                .map(|(i, l)| LayerRecord {
+                    layer: i,
+                    height_m: l.height_m,
+                    lai_above: l.lai_above,
+                    sunlit_fraction: l.sunlit_fraction,
+                    air_speed_m_s: l.air_speed_m_s,
+                    sunlit_leaf_temp_c: l.sunlit_leaf_temp_c.and_then(finite),
+                    shaded_leaf_temp_c: l.shaded_leaf_temp_c,
+                })
+                .collect(),
+            design_day: run.design_day.as_ref().map(|s| series_record(s, site, &[])),
+            weather: run.weather.as_ref().map(|(s, bad)| series_record(s, site, bad)),
+        }
+    }
+}
+
+/// Loads the scenario and runs its canopy section.
+///
+/// # Errors
+/// An unreadable scenario, one without a canopy section, or invalid inputs.
+pub fn record(args: &CanopyArgs) -> Result<CanopyRecord> {
+    let doc = ScenarioDocument::load(&args.scenario)
+        .map_err(|e| anyhow!("{e} in {}", args.scenario.display()))?;
+    let section = doc.canopy.as_ref().ok_or_else(|| {
+        anyhow!(
+            "the scenario has no canopy section (add `canopy: Some((…))`; see scenarios/glasshouse_still_afternoon.ron) in {}",
+            args.scenario.display()
+        )
+    })?;
+    let run = section.run(&doc.case, doc.heat_limit_c, doc.margin_k, args.scenario.parent())?;
+    Ok(CanopyRecord::new(&doc.title, &run, &section.site))
+}
+
+/// Runs `leafwind canopy`, writing to `out`.
+///
+/// # Errors
+/// As [`record`], or a failed write.
+pub fn run(args: &CanopyArgs, out: &mut impl Write) -> Result<ExitCode> {
+    let r = record(args)?;
+    if args.json {
+        serde_json::to_writer_pretty(&mut *out, &r)?;
+        writeln!(out)?;
+        return Ok(ExitCode::SUCCESS);
+    }
+    writeln!(out, "{}", r.title)?;
+    writeln!(out, "Sun {:.1}° high, azimuth {:.0}°", r.sun_elevation_deg, r.sun_azimuth_deg)?;
+    if let Some(t) = r.inside_air_temp_c {
+        writeln!(out, "Inside air {t:.1} °C")?;
+    }
+    writeln!(
+        out,
+        "Hottest leaf {:.1} °C ({} leaf in layer {} from the top); limit {:.1} °C ({}), margin {:+.1} K",
+        r.hottest_leaf_temp_c,
+        if r.hottest_leaf_sunlit { "sunlit" } else { "shaded" },
+        r.hottest_layer,
+        r.limit_c,
+        r.limit_kind,
+        r.margin_k
+    )?;
+    writeln!(out, "Air speed: {}", r.required_wind_reason)?;
+    writeln!(out, "Shade: {}", r.required_shade_fraction_reason)?;
+    writeln!(out, "{:>5} {:>8} {:>9} {:>9} {:>10} {:>10}", "layer", "height m", "LAI above", "sunlit %", "air m/s", "leaf °C")?;
+    for l in &r.layers {
+        let leaf = l.sunlit_leaf_temp_c.map_or(format!("{:.1}", l.shaded_leaf_temp_c), |s| {
+            format!("{s:.1}/{:.1}", l.shaded_leaf_temp_c)
+        });
+        writeln!(
+            out,
+            "{:>5} {:>8.2} {:>9.2} {:>9.0} {:>10.2} {:>10}",
+            l.layer,
+            l.height_m,
+            l.lai_above,
+            100.0 * l.sunlit_fraction,
+            l.air_speed_m_s,
+            leaf
+        )?;
+    }
+    for (name, s) in [("Design day", &r.design_day), ("Weather file", &r.weather)] {
+        if let Some(s) = s {
+            writeln!(
+                out,
+                "{name}: {:.0} h over the limit, {:.1} K·h over it, smallest margin {}",
+                s.hours_over_limit,
+                s.degree_hours_over_limit,
+                s.min_margin_k.map_or("—".to_owned(), |m| format!("{m:+.1} K"))
+            )?;
+            for row in &s.rejected_rows {
+                writeln!(out, "  rejected {row}")?;
+            }
+        }
+    }
+    Ok(ExitCode::SUCCESS)
+}

@@ -1,0 +1,134 @@
+//! `leafwind canopy`: the JSON answer for an open field with a design day, a greenhouse with a
+//! shade answer, a weather file with a bad row, and a scenario with no canopy section.
+
+use std::path::{Path, PathBuf};
+
+use leafwind_app::canopy_scenario::{CanopySection, GreenhouseSection, InsideMode};
+use leafwind_app::cli::canopy::{CanopyArgs, run};
+use leafwind_app::gui::document::ScenarioDocument;
+use leafwind_physics::Humidity;
+use leafwind_physics::design_day::DesignDay;
+use leafwind_physics::greenhouse::Cover;
+
+fn temp_dir(name: &str) -> PathBuf {
+    let dir = std::env::temp_dir().join(format!("leafwind-canopy-{name}-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    dir
+}
+
+fn write(doc: &ScenarioDocument, dir: &Path) -> PathBuf {
+    let path = dir.join("scenario.ron");
+    std::fs::write(&path, doc.to_ron().unwrap()).unwrap();
+    path
+}
+
+fn json(path: PathBuf) -> serde_json::Value {
+    let mut out = Vec::new();
+    run(&CanopyArgs { scenario: path, json: true }, &mut out).unwrap();
+    let text = String::from_utf8(out).unwrap();
+    assert!(!text.contains("NaN") && !text.contains("inf"));
+    serde_json::from_str(&text).unwrap()
+}
+
+fn hot_field() -> ScenarioDocument {
+    let mut doc = ScenarioDocument::default();
+    doc.case.air.temp_c = 33.0;
+    doc.case.air.humidity = Humidity::RelativePct(35.0);
+    doc.case.air.speed_m_s = 0.3;
+    doc.heat_limit_c = 38.0;
+    doc.margin_k = 1.0;
+    doc.canopy = Some(CanopySection {
+        design_day: Some(DesignDay::default()),
+        ..CanopySection::default()
+    });
+    doc
+}
+
+#[test]
+fn open_field_json_has_the_documented_keys_and_a_design_day() {
+    let dir = temp_dir("field");
+    let v = json(write(&hot_field(), &dir));
+    for key in [
+        "hottest_leaf_temp_c", "hottest_layer", "hottest_leaf_sunlit", "margin_k",
+        "required_wind_m_s", "required_wind_reason", "required_shade_fraction",
+        "required_shade_fraction_reason", "layers", "design_day",
+    ] {
+        assert!(v.get(key).is_some(), "missing {key}");
+    }
+    assert_eq!(v["layers"].as_array().unwrap().len(), 20);
+    // Open field: no shade answer, and the reason says why.
+    assert!(v["required_shade_fraction"].is_null());
+    assert!(v["required_shade_fraction_reason"].as_str().unwrap().contains("greenhouse"));
+    let day = &v["design_day"];
+    let steps = day["steps"].as_array().unwrap();
+    assert!(steps.len() >= 24);
+    for key in ["time", "sun_elevation_deg", "sun_azimuth_deg", "air_temp_c", "hottest_leaf_temp_c"] {
+        assert!(steps[12].get(key).is_some(), "step missing {key}");
+    }
+    assert!(day["hours_over_limit"].as_f64().unwrap() >= 0.0);
+    assert!(day["degree_hours_over_limit"].as_f64().unwrap() >= 0.0);
+    // The hottest leaf is the one the layers say.
+    let layer = v["hottest_layer"].as_u64().unwrap() as usize;
+    let l = &v["layers"][layer];
+    let t = if v["hottest_leaf_sunlit"].as_bool().unwrap() {
+        l["sunlit_leaf_temp_c"].as_f64().unwrap()
+    } else {
+        l["shaded_leaf_temp_c"].as_f64().unwrap()
+    };
+    assert!((t - v["hottest_leaf_temp_c"].as_f64().unwrap()).abs() < 1e-9);
+}
+
+#[test]
+fn greenhouse_gives_a_shade_answer() {
+    let dir = temp_dir("house");
+    let mut doc = hot_field();
+    doc.heat_limit_c = 36.0;
+    if let Some(c) = doc.canopy.as_mut() {
+        c.design_day = None;
+        c.greenhouse = Some(GreenhouseSection {
+            cover: Cover::default(),
+            shade_fraction: 0.0,
+            outside_air_temp_c: 32.0,
+            outside_humidity: Humidity::RelativePct(40.0),
+            inside: InsideMode::Ventilated { rate_m3_m2_s: 0.03 },
+        });
+    }
+    let v = json(write(&doc, &dir));
+    assert!(v["inside_air_temp_c"].as_f64().is_some());
+    let reason = v["required_shade_fraction_reason"].as_str().unwrap();
+    assert!(!reason.contains("open field"), "{reason}");
+}
+
+#[test]
+fn weather_file_bad_rows_are_listed_and_good_rows_run() {
+    let dir = temp_dir("weather");
+    std::fs::write(
+        dir.join("hours.csv"),
+        "time,air_temp_c,rh_pct,wind_m_s,shortwave_w_m2\n\
+         2026-07-21 12:00,34,30,1.0,850\n\
+         2026-07-21 13:00,35,130,1.0,870\n\
+         2026-07-21 14:00,36,28,1.2,820\n",
+    )
+    .unwrap();
+    let mut doc = hot_field();
+    if let Some(c) = doc.canopy.as_mut() {
+        c.design_day = None;
+        c.weather_csv = Some("hours.csv".into());
+    }
+    let v = json(write(&doc, &dir));
+    let w = &v["weather"];
+    assert_eq!(w["steps"].as_array().unwrap().len(), 2);
+    let rejected = w["rejected_rows"].as_array().unwrap();
+    assert_eq!(rejected.len(), 1);
+    assert!(rejected[0].as_str().unwrap().contains('3'), "{rejected:?}");
+}
+
+#[test]
+fn scenario_without_canopy_is_a_named_error() {
+    let dir = temp_dir("none");
+    let path = write(&ScenarioDocument::default(), &dir);
+    let mut out = Vec::new();
+    let err = run(&CanopyArgs { scenario: path.clone(), json: false }, &mut out).unwrap_err();
+    let msg = format!("{err:#}");
+    assert!(msg.contains("no canopy section") && msg.contains(&path.display().to_string()), "{msg}");
+}

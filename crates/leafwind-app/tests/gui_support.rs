@@ -1,0 +1,48 @@
+//! Shared helpers of the window tests (included by each `gui_*.rs` test file with `mod`).
+
+#![allow(dead_code)]
+
+use egui::accesskit::Role;
+use egui_kittest::Harness;
+use egui_kittest::kittest::{NodeT as _, Queryable};
+use leafwind_app::gui::LeafwindApp;
+use leafwind_app::gui::document::ScenarioDocument;
+
+/// A harness tall enough that every input is on screen (and so in the accessibility tree).
+pub fn harness(doc: ScenarioDocument) -> Harness<'static, LeafwindApp> {
+    let mut h = Harness::builder()
+        .with_size(egui::vec2(1500.0, 3200.0))
+        .with_max_steps(40)
+        .build_ui_state(
+            |ui, app: &mut LeafwindApp| app.frame(ui),
+            LeafwindApp::new_for_test(doc),
+        );
+    h.run();
+    h
+}
+
+/// Every label and value in the tree that shows a non-finite number.
+pub fn non_finite_texts(h: &Harness<'_, LeafwindApp>) -> Vec<String> {
+    let bad =
+        |s: &str| s.contains("NaN") || s.contains("inf") && !s.contains("info") || s.contains("∞");
+    h.query_all_by(move |n| {
+        n.label().is_some_and(|l| bad(&l)) || n.value().is_some_and(|v| bad(&v))
+    })
+    .map(|n| {
+        let a = n.accesskit_node();
+        format!("{:?}: {:?} / {:?}", a.role(), a.label(), a.value())
+    })
+    .collect()
+}
+
+/// Sets a slider by its accessible label and runs the frames that follow.
+pub fn set_slider(h: &mut Harness<'_, LeafwindApp>, label: &str, value: f64) {
+    h.get_by_role_and_label(Role::Slider, label)
+        .set_value_accesskit(value);
+    h.run();
+}
+
+/// Whether some text in the tree contains `needle`.
+pub fn has_text(h: &Harness<'_, LeafwindApp>, needle: &str) -> bool {
+    h.query_all_by_label_contains(needle).next().is_some()
+}

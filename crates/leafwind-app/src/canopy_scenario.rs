@@ -247,24 +247,7 @@ impl CanopySection {
                 (sol, None, speed, None)
             }
             Some(g) => {
-                let gc = GreenhouseCase {
-                    outside: Outside {
-                        air_temp_c: g.outside_air_temp_c,
-                        humidity: g.outside_humidity,
-                        pressure_kpa: case.air.pressure_kpa,
-                        sun_elevation_rad: elevation,
-                        shortwave,
-                    },
-                    cover: g.cover,
-                    shade_fraction: g.shade_fraction,
-                    inside: g.inside_air(case),
-                    canopy_top_speed_m_s: case.air.speed_m_s,
-                    leaf: case.leaf,
-                    structure: self.structure,
-                    turbulence_factor: case.air.turbulence_factor,
-                    critical_reynolds: case.critical_reynolds,
-                    limit_c: Some(target_limit),
-                };
+                let gc = self.greenhouse_case(g, case, elevation, shortwave, target_limit);
                 let sol = greenhouse::solve_greenhouse(&gc)?;
                 let sizing = greenhouse::size(&gc, target_limit, margin_k, self.max_search_speed_m_s)?;
                 (sol.canopy, Some(sol.inside_air_temp_c), sizing.speed, Some(sizing.shade))
@@ -300,6 +283,78 @@ impl CanopySection {
             design_day,
             weather,
         })
+    }
+
+    /// The canopy case at the profile's moment, as the crop sees it: in the open field the scenario's
+    /// air, sky and the light above; under cover the inside air from the greenhouse balance, the
+    /// cover as what the canopy sees, and the light the cover and shade let through.
+    ///
+    /// # Errors
+    /// Invalid inputs (named).
+    pub fn profile_case(&self, case: &LeafCase, own_limit_c: f64) -> Result<CanopyCase> {
+        let limit = self.limit(own_limit_c)?;
+        let (pos, shortwave) = self.light()?;
+        let elevation = pos.elevation_rad.max(0.0);
+        let mut cc = CanopyCase {
+            air: case.air,
+            leaf: case.leaf,
+            upper_view: case.surroundings.upper_view,
+            light: CanopyLight { sun_elevation_rad: elevation, shortwave },
+            structure: self.structure,
+            critical_reynolds: case.critical_reynolds,
+            limit_c: Some(limit.limit_c),
+        };
+        if let Some(g) = &self.greenhouse {
+            let gc = self.greenhouse_case(g, case, elevation, shortwave, limit.limit_c);
+            let sol = greenhouse::solve_greenhouse(&gc)?;
+            cc.air.temp_c = sol.inside_air_temp_c;
+            cc.air.humidity = Humidity::RelativePct(sol.inside_rh_pct.clamp(0.0, 100.0));
+            cc.upper_view = leafwind_physics::UpperView::CoverTempC(sol.cover_temp_c);
+            cc.light.shortwave = gc.inside_light();
+        }
+        Ok(cc)
+    }
+
+    /// The design day and the engine's hour-by-hour case, when the section has a design day.
+    ///
+    /// # Errors
+    /// An unknown crop limit.
+    pub fn design_day_inputs(
+        &self,
+        case: &LeafCase,
+        own_limit_c: f64,
+    ) -> Result<Option<(DesignDay, SeriesCase)>> {
+        let limit = self.limit(own_limit_c)?;
+        Ok(self.design_day.map(|day| (day, self.series_case(case, &limit))))
+    }
+
+    /// The engine's greenhouse case for this section at one moment.
+    fn greenhouse_case(
+        &self,
+        g: &GreenhouseSection,
+        case: &LeafCase,
+        elevation_rad: f64,
+        shortwave: HorizontalShortwave,
+        limit_c: f64,
+    ) -> GreenhouseCase {
+        GreenhouseCase {
+            outside: Outside {
+                air_temp_c: g.outside_air_temp_c,
+                humidity: g.outside_humidity,
+                pressure_kpa: case.air.pressure_kpa,
+                sun_elevation_rad: elevation_rad,
+                shortwave,
+            },
+            cover: g.cover,
+            shade_fraction: g.shade_fraction,
+            inside: g.inside_air(case),
+            canopy_top_speed_m_s: case.air.speed_m_s,
+            leaf: case.leaf,
+            structure: self.structure,
+            turbulence_factor: case.air.turbulence_factor,
+            critical_reynolds: case.critical_reynolds,
+            limit_c: Some(limit_c),
+        }
     }
 
     /// The engine's hour-by-hour case for this section.

@@ -1,7 +1,11 @@
 //! `leafwind canopy`: the JSON answer for an open field with a design day, a greenhouse with a
 //! shade answer, a weather file with a bad row, and a scenario with no canopy section.
 
-use std::path::{Path, PathBuf};
+mod cli_support;
+
+use std::path::PathBuf;
+
+use cli_support::write;
 
 use leafwind_app::canopy_scenario::{CanopySection, GreenhouseSection, InsideMode};
 use leafwind_app::cli::canopy::{CanopyArgs, run};
@@ -11,15 +15,7 @@ use leafwind_physics::design_day::DesignDay;
 use leafwind_physics::greenhouse::Cover;
 
 fn temp_dir(name: &str) -> PathBuf {
-    let dir = std::env::temp_dir().join(format!("leafwind-canopy-{name}-{}", std::process::id()));
-    std::fs::create_dir_all(&dir).unwrap();
-    dir
-}
-
-fn write(doc: &ScenarioDocument, dir: &Path) -> PathBuf {
-    let path = dir.join("scenario.ron");
-    std::fs::write(&path, doc.to_ron().unwrap()).unwrap();
-    path
+    cli_support::temp_dir("canopy", name)
 }
 
 fn json(path: PathBuf) -> serde_json::Value {

@@ -1,7 +1,11 @@
 //! `leafwind fans`: the canopy air-speed range of a layout, sizing for a target, spot readings
 //! with a bad row, the night dew check, and a scenario with no fans section.
 
-use std::path::{Path, PathBuf};
+mod cli_support;
+
+use std::path::PathBuf;
+
+use cli_support::write;
 
 use leafwind_app::cli::fans::{FansArgs, run};
 use leafwind_app::fans_scenario::{FansSection, NightCheck};
@@ -9,15 +13,7 @@ use leafwind_app::gui::document::ScenarioDocument;
 use leafwind_physics::{Humidity, UpperView};
 
 fn temp_dir(name: &str) -> PathBuf {
-    let dir = std::env::temp_dir().join(format!("leafwind-fans-{name}-{}", std::process::id()));
-    std::fs::create_dir_all(&dir).unwrap();
-    dir
-}
-
-fn write(doc: &ScenarioDocument, dir: &Path) -> PathBuf {
-    let path = dir.join("scenario.ron");
-    std::fs::write(&path, doc.to_ron().unwrap()).unwrap();
-    path
+    cli_support::temp_dir("fans", name)
 }
 
 fn json(path: PathBuf) -> serde_json::Value {

@@ -217,7 +217,7 @@ fn design_day_from_series(
     let degree_unit = format!("{}·h", dq.unit(units));
     let degree_hours = dq.to_display(s.degree_hours_over_k_h, units);
     let mut body = format!(
-        "<p>On the design day of {} (maximum {}, minimum {}, clear sky) the hottest leaf reaches {}. The {} limit of {} ({}, {}; source: {}) is exceeded for {} h, by {} {} in all.</p>\n",
+        "<p>On the design day of {} (maximum {}, minimum {}, clear sky) the hottest leaf reaches {}. The {} limit is {} for {}, {} — source: {}. It is exceeded for {} h, by {} {} in all.</p>\n",
         esc(&date),
         esc(&show(tq, day.max_temp_c, units)),
         esc(&show(tq, day.min_temp_c, units)),

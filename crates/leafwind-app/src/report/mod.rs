@@ -105,8 +105,9 @@ pub struct ReportFiles {
     pub answer: String,
 }
 
-/// Computes the report for `doc` and writes `report.html` and its CSV tables into `out_dir`
-/// (created if missing; files of an earlier report there are replaced).
+/// Computes the report for `doc` (with the optional sections its canopy section asks for,
+/// [`extras_for`]) and writes `report.html` and its CSV tables into `out_dir` (created if
+/// missing; files of an earlier report there are replaced).
 ///
 /// # Errors
 /// An invalid scenario (the engine's message), or a file that could not be written (with its
@@ -116,7 +117,24 @@ pub fn write_report(
     out_dir: &Path,
     units: UnitSystem,
 ) -> anyhow::Result<ReportFiles> {
-    write_report_with(doc, &ReportExtras::default(), out_dir, units)
+    write_report_with(doc, &extras_for(doc), out_dir, units)
+}
+
+/// The optional sections a scenario asks for: its canopy section's profile and design day.
+/// A canopy section that cannot be set up (an unknown crop, say) is left out here; the scenario's
+/// `leafwind canopy` run names the reason.
+#[must_use]
+pub fn extras_for(doc: &ScenarioDocument) -> ReportExtras {
+    match &doc.canopy {
+        None => ReportExtras::default(),
+        Some(section) => ReportExtras {
+            canopy: section.profile_case(&doc.case, doc.heat_limit_c).ok(),
+            design_day: section
+                .design_day_inputs(&doc.case, doc.heat_limit_c)
+                .ok()
+                .flatten(),
+        },
+    }
 }
 
 /// As [`write_report`], with optional sections.
@@ -284,10 +302,24 @@ fn inputs_section(doc: &ScenarioDocument, leaf: &LeafResult, units: UnitSystem) 
         "around the leaf",
     );
     let (hname, hval, hshown, hunit) = humidity_row(c.air.humidity, units);
-    let dew = s.air_dew_point_c.map_or_else(String::new, |d| {
-        format!(", dew point {}", show(tq, d, units))
-    });
-    let hnote = format!("vapour pressure {:.2} kPa{dew}", s.air_vapour_pressure_kpa);
+    // The note gives the other forms of the same humidity.
+    let rh =
+        leafwind_physics::air::rh_from_vapour_pressure_pct(c.air.temp_c, s.air_vapour_pressure_kpa);
+    let dew = s.air_dew_point_c.map_or_else(
+        || "no dew point (dry air)".to_owned(),
+        |d| format!("dew point {}", show(tq, d, units)),
+    );
+    let hnote = match c.air.humidity {
+        Humidity::RelativePct(_) => format!(
+            "vapour pressure {:.2} kPa, {dew}",
+            s.air_vapour_pressure_kpa
+        ),
+        Humidity::DewPointC(_) => format!(
+            "relative humidity {rh:.0} %, vapour pressure {:.2} kPa",
+            s.air_vapour_pressure_kpa
+        ),
+        Humidity::DeficitKpa(_) => format!("relative humidity {rh:.0} %, {dew}"),
+    };
     let hcsv = match c.air.humidity {
         Humidity::DewPointC(d) => csv_q(tq, d, units),
         _ => csv_num(hval),
@@ -343,7 +375,12 @@ fn inputs_section(doc: &ScenarioDocument, leaf: &LeafResult, units: UnitSystem) 
         ),
         None => r.raw(
             "Free-convection length",
-            &show_with(sz, c.leaf.free_convection_length_m(), units, 1),
+            &show_with(
+                sz,
+                c.leaf.free_convection_length_m(),
+                units,
+                if units == UnitSystem::Si { 1 } else { 3 },
+            ),
             &csv_q(sz, c.leaf.free_convection_length_m(), units),
             sz.unit(units),
             "square leaf assumed: area over perimeter = size / 4",
@@ -992,6 +1029,11 @@ fn map_section(
         format!(
             " Every leaf on this map is over the limit (the coolest cell is at {}).",
             show(tq, coolest, units)
+        )
+    } else if map.margin_lines.is_empty() {
+        format!(
+            " Nowhere on this map does the leaf come down to the limit less the margin ({}).",
+            show(tq, leaf.limit_c - leaf.margin_k, units)
         )
     } else {
         String::new()

@@ -869,7 +869,7 @@ pub fn line_plot_svg(p: &LinePlot) -> anyhow::Result<String> {
             .filter(|q| q.0.is_finite() && q.1.is_finite())
     };
     let (x0, x1) =
-        padded_range(all().map(|q| q.0), 0.0).ok_or_else(|| anyhow!("nothing to plot"))?;
+        padded_range(all().map(|q| q.0), 0.03).ok_or_else(|| anyhow!("nothing to plot"))?;
     let (y0, y1) =
         padded_range(all().map(|q| q.1), 0.1).ok_or_else(|| anyhow!("nothing to plot"))?;
     let mut svg = String::new();

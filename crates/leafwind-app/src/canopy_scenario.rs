@@ -14,6 +14,8 @@ use leafwind_physics::{Humidity, LeafCase};
 use leafwind_physics::canopy::{
     self, CanopyCase, CanopyLight, CanopySolution, CanopyStructure, SpeedAnswer,
 };
+use leafwind_physics::condensation::{self, DewSeries};
+use leafwind_physics::cooling::{self, OptionDay, OptionMoment};
 use leafwind_physics::crops::{self, HeatLimit, LimitKind};
 use leafwind_physics::design_day::{self, DesignDay, Environment, GreenhouseSetup, HourlySeries, SeriesCase};
 use leafwind_physics::greenhouse::{
@@ -177,7 +179,28 @@ pub struct CanopyRun {
     pub design_day: Option<HourlySeries>,
     /// Hour by hour over the weather file, if the section names one, with its bad rows.
     pub weather: Option<(HourlySeries, Vec<weather::RowError>)>,
+    /// Over the design day: hours with the crop's leaves (at the scenario's air speed, with what
+    /// the scenario's leaf sees above) below the dew point and below it plus the margin.
+    pub dew: Option<DewSeries>,
+    /// The cooling and shading options side by side (under cover only).
+    pub cooling: Option<CoolingTable>,
 }
+
+/// Cooling and shading options compared (engine's `cooling` module).
+#[derive(Debug, Clone)]
+pub enum CoolingTable {
+    /// Over the design day: hours over the limit, water and fan energy.
+    Day(Vec<OptionDay>),
+    /// At the profile's moment only (no design day in the section).
+    Moment(Vec<OptionMoment>),
+}
+
+/// Margin kept above the dew point in the design-day dew count \[K\] (the engine's default).
+pub const DEW_MARGIN_K: f64 = condensation::DEW_MARGIN_DEFAULT_K;
+
+/// Fan power per floor area assumed for the "fans" options when the scenario has no fans section
+/// \[W m⁻²\]: 2 W m⁻², typical of horizontal-airflow fans (common practice, no source).
+pub const FAN_POWER_DEFAULT_W_M2: f64 = 2.0;
 
 impl CanopyRun {
     /// Why there is no shade answer, when there is none.
@@ -227,6 +250,22 @@ impl CanopySection {
         margin_k: f64,
         scenario_dir: Option<&Path>,
     ) -> Result<CanopyRun> {
+        self.run_with_fans(case, own_limit_c, margin_k, scenario_dir, FAN_POWER_DEFAULT_W_M2)
+    }
+
+    /// As [`CanopySection::run`], with the circulation-fan power per floor area \[W m⁻²\] the
+    /// "fans" cooling options use (from the scenario's fans section when it has one).
+    ///
+    /// # Errors
+    /// As [`CanopySection::run`].
+    pub fn run_with_fans(
+        &self,
+        case: &LeafCase,
+        own_limit_c: f64,
+        margin_k: f64,
+        scenario_dir: Option<&Path>,
+        fan_power_w_m2: f64,
+    ) -> Result<CanopyRun> {
         let limit = self.limit(own_limit_c)?;
         let (pos, shortwave) = self.light()?;
         let elevation = pos.elevation_rad.max(0.0);
@@ -270,6 +309,21 @@ impl CanopySection {
             }
             None => None,
         };
+        let dew = match &self.design_day {
+            Some(day) => {
+                let hours = design_day::design_day_weather(day, &self.site)?;
+                let cases = condensation::hourly_leaf_cases(
+                    &self.site,
+                    &hours,
+                    &case.leaf,
+                    case.surroundings.upper_view,
+                    case.air.speed_m_s,
+                )?;
+                Some(condensation::dew_hours(&cases, DEW_MARGIN_K)?)
+            }
+            None => None,
+        };
+        let cooling = self.cooling_table(case, &limit, margin_k, elevation, shortwave, fan_power_w_m2)?;
         Ok(CanopyRun {
             sun_elevation_rad: pos.elevation_rad,
             sun_azimuth_rad: pos.azimuth_rad,
@@ -282,7 +336,39 @@ impl CanopySection {
             shade,
             design_day,
             weather,
+            dew,
+            cooling,
         })
+    }
+
+    /// The cooling options table: over the design day when there is one, else at the moment;
+    /// None in the open field.
+    fn cooling_table(
+        &self,
+        case: &LeafCase,
+        limit: &HeatLimit,
+        margin_k: f64,
+        elevation_rad: f64,
+        shortwave: HorizontalShortwave,
+        fan_power_w_m2: f64,
+    ) -> Result<Option<CoolingTable>> {
+        let Some(g) = &self.greenhouse else {
+            return Ok(None);
+        };
+        let options = cooling::standard_options(case.air.speed_m_s, fan_power_w_m2);
+        // Cooling and fans are taken to run whenever the outside air is within 5 K of the target
+        // (a working assumption of this tool, no source; it only sets the water and energy hours).
+        let run_above_c = limit.limit_c - margin_k - 5.0;
+        Ok(Some(match &self.design_day {
+            Some(day) => {
+                let series = self.series_case(case, limit);
+                CoolingTable::Day(cooling::compare_design_day(day, &series, &options, run_above_c)?)
+            }
+            None => {
+                let gc = self.greenhouse_case(g, case, elevation_rad, shortwave, limit.limit_c);
+                CoolingTable::Moment(cooling::compare_moment(&gc, &options, Some(limit.limit_c))?)
+            }
+        }))
     }
 
     /// The canopy case at the profile's moment, as the crop sees it: in the open field the scenario's

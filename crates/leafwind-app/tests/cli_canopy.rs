@@ -62,6 +62,9 @@ fn open_field_json_has_the_documented_keys_and_a_design_day() {
         assert!(steps[12].get(key).is_some(), "step missing {key}");
     }
     assert!(day["hours_over_limit"].as_f64().unwrap() >= 0.0);
+    // The design day also counts dew hours; the open field has no cooling options table.
+    assert!(v["dew_hours_below_dew_point"].as_f64().unwrap() >= 0.0);
+    assert!(v["cooling_options"].as_array().unwrap().is_empty());
     assert!(day["degree_hours_over_limit"].as_f64().unwrap() >= 0.0);
     // The hottest leaf is the one the layers say.
     let layer = v["hottest_layer"].as_u64().unwrap() as usize;
@@ -93,6 +96,18 @@ fn greenhouse_gives_a_shade_answer() {
     assert!(v["inside_air_temp_c"].as_f64().is_some());
     let reason = v["required_shade_fraction_reason"].as_str().unwrap();
     assert!(!reason.contains("open field"), "{reason}");
+    // Under cover the options are compared; shading the house never heats the hottest leaf
+    // (common practice, no source).
+    let options = v["cooling_options"].as_array().unwrap();
+    let hottest = |label: &str| {
+        options
+            .iter()
+            .find(|o| o["option"] == label)
+            .and_then(|o| o["hottest_leaf_temp_c"].as_f64())
+            .unwrap()
+    };
+    assert!(options.len() >= 5);
+    assert!(hottest("shade screen") <= hottest("none"));
 }
 
 #[test]

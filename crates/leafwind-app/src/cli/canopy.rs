@@ -10,7 +10,7 @@ use clap::Args;
 use leafwind_physics::sun::{self, DateTime};
 use serde::Serialize;
 
-use crate::canopy_scenario::CanopyRun;
+use crate::canopy_scenario::{CanopyRun, CoolingTable, FAN_POWER_DEFAULT_W_M2};
 use crate::gui::document::ScenarioDocument;
 use crate::output::finite;
 
@@ -123,6 +123,33 @@ pub struct CanopyRecord {
     pub design_day: Option<SeriesRecord>,
     /// Hour by hour over the weather file.
     pub weather: Option<SeriesRecord>,
+    /// Design day: hours with leaves below the dew point \[h\].
+    pub dew_hours_below_dew_point: Option<f64>,
+    /// Design day: hours with leaves below the dew point plus the margin \[h\].
+    pub dew_hours_below_margin: Option<f64>,
+    /// Margin above the dew point used for that count \[K\].
+    pub dew_margin_k: Option<f64>,
+    /// Cooling and shading options side by side (under cover only).
+    pub cooling_options: Vec<CoolingRecord>,
+}
+
+/// One cooling or shading option.
+#[derive(Debug, Clone, Serialize)]
+pub struct CoolingRecord {
+    /// The option, e.g. "pads + fans".
+    pub option: String,
+    /// Hottest leaf \[°C\].
+    pub hottest_leaf_temp_c: Option<f64>,
+    /// Smallest margin to the limit \[K\].
+    pub margin_k: Option<f64>,
+    /// Hours over the limit over the design day \[h\] (null at a single moment).
+    pub hours_over_limit: Option<f64>,
+    /// Water evaporated per floor area \[L m⁻²\] over the day, or per hour at a moment.
+    pub water_l_m2: f64,
+    /// Whether the water figure is per hour (a single moment) rather than per day.
+    pub water_per_hour: bool,
+    /// Circulation-fan energy per floor area over the day \[kWh m⁻²\] (null at a moment).
+    pub fan_energy_kwh_m2: Option<f64>,
 }
 
 fn time_text(t: &DateTime) -> String {
@@ -200,6 +227,36 @@ impl CanopyRecord {
                 .collect(),
             design_day: run.design_day.as_ref().map(|s| series_record(s, site, &[])),
             weather: run.weather.as_ref().map(|(s, bad)| series_record(s, site, bad)),
+            dew_hours_below_dew_point: run.dew.as_ref().map(|d| d.hours_below_dew_point),
+            dew_hours_below_margin: run.dew.as_ref().map(|d| d.hours_below_margin),
+            dew_margin_k: run.dew.as_ref().map(|d| d.margin_k),
+            cooling_options: match &run.cooling {
+                None => Vec::new(),
+                Some(CoolingTable::Day(rows)) => rows
+                    .iter()
+                    .map(|o| CoolingRecord {
+                        option: o.label.clone(),
+                        hottest_leaf_temp_c: o.hottest_leaf_temp_c.and_then(finite),
+                        margin_k: o.min_margin_k.and_then(finite),
+                        hours_over_limit: Some(o.hours_over_limit),
+                        water_l_m2: o.water_kg_m2,
+                        water_per_hour: false,
+                        fan_energy_kwh_m2: Some(o.fan_energy_kwh_m2),
+                    })
+                    .collect(),
+                Some(CoolingTable::Moment(rows)) => rows
+                    .iter()
+                    .map(|o| CoolingRecord {
+                        option: o.label.clone(),
+                        hottest_leaf_temp_c: finite(o.hottest_leaf_temp_c),
+                        margin_k: o.margin_k.and_then(finite),
+                        hours_over_limit: None,
+                        water_l_m2: o.water_kg_m2_h,
+                        water_per_hour: true,
+                        fan_energy_kwh_m2: None,
+                    })
+                    .collect(),
+            },
         }
     }
 }
@@ -217,7 +274,19 @@ pub fn record(args: &CanopyArgs) -> Result<CanopyRecord> {
             args.scenario.display()
         )
     })?;
-    let run = section.run(&doc.case, doc.heat_limit_c, doc.margin_k, args.scenario.parent())?;
+    // The fans' power per floor area for the "fans" cooling options, from the fans section if any.
+    let fan_power = doc
+        .fans
+        .as_ref()
+        .and_then(|f| leafwind_physics::fans::fan_energy(&f.layout, 24.0).ok())
+        .map_or(FAN_POWER_DEFAULT_W_M2, |e| e.power_per_floor_w_m2);
+    let run = section.run_with_fans(
+        &doc.case,
+        doc.heat_limit_c,
+        doc.margin_k,
+        args.scenario.parent(),
+        fan_power,
+    )?;
     Ok(CanopyRecord::new(&doc.title, &run, &section.site))
 }
 
@@ -277,6 +346,30 @@ pub fn run(args: &CanopyArgs, out: &mut impl Write) -> Result<ExitCode> {
             for row in &s.rejected_rows {
                 writeln!(out, "  rejected {row}")?;
             }
+        }
+    }
+    if let (Some(below), Some(margin_h), Some(m)) =
+        (r.dew_hours_below_dew_point, r.dew_hours_below_margin, r.dew_margin_k)
+    {
+        writeln!(
+            out,
+            "Night dew over the design day: {below:.0} h with leaves below the dew point, {margin_h:.0} h within {m:.1} K of it"
+        )?;
+    }
+    if !r.cooling_options.is_empty() {
+        writeln!(out, "Cooling and shading options (estimates; defaults cited in the engine):")?;
+        writeln!(out, "{:<22} {:>12} {:>10} {:>10} {:>12}", "option", "hottest °C", "margin K", "h over", "water L/m²")?;
+        for o in &r.cooling_options {
+            let opt = |v: Option<f64>, d: usize| v.map_or("—".to_owned(), |x| format!("{x:.d$}"));
+            writeln!(
+                out,
+                "{:<22} {:>12} {:>10} {:>10} {:>12}",
+                o.option,
+                opt(o.hottest_leaf_temp_c, 1),
+                opt(o.margin_k, 1),
+                opt(o.hours_over_limit, 0),
+                format!("{:.2}{}", o.water_l_m2, if o.water_per_hour { "/h" } else { "" })
+            )?;
         }
     }
     Ok(ExitCode::SUCCESS)

@@ -10,19 +10,21 @@
 use std::path::{Path, PathBuf};
 
 use anyhow::{Context, Result, anyhow};
-use leafwind_physics::{Humidity, LeafCase};
 use leafwind_physics::canopy::{
     self, CanopyCase, CanopyLight, CanopySolution, CanopyStructure, SpeedAnswer,
 };
 use leafwind_physics::condensation::{self, DewSeries};
 use leafwind_physics::cooling::{self, OptionDay, OptionMoment};
 use leafwind_physics::crops::{self, HeatLimit, LimitKind};
-use leafwind_physics::design_day::{self, DesignDay, Environment, GreenhouseSetup, HourlySeries, SeriesCase};
+use leafwind_physics::design_day::{
+    self, DesignDay, Environment, GreenhouseSetup, HourlySeries, SeriesCase,
+};
 use leafwind_physics::greenhouse::{
     self, Cover, GreenhouseCase, InsideAir, Outside, ShadeAnswer, VENTILATION_DEFAULT_M3_M2_S,
 };
 use leafwind_physics::sun::{self, DateTime, HorizontalShortwave, Site};
 use leafwind_physics::weather;
+use leafwind_physics::{Humidity, LeafCase};
 use serde::{Deserialize, Serialize};
 
 /// Default upper end of the canopy-top air speed search \[m s⁻¹\] (common practice, no source:
@@ -35,6 +37,7 @@ fn default_search_max() -> f64 {
 
 /// Light above the canopy (or above the greenhouse cover).
 #[derive(Debug, Clone, Copy, PartialEq, Default, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub enum LightAbove {
     /// Clear sky from the sun position (the ASHRAE clear-sky model in the engine's `sun` module).
     #[default]
@@ -55,6 +58,7 @@ pub enum LightAbove {
 
 /// Where the air inside the greenhouse comes from.
 #[derive(Debug, Clone, Copy, PartialEq, Default, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub enum InsideMode {
     /// The scenario's own air (temperature and humidity) is the inside air, as measured.
     #[default]
@@ -221,7 +225,12 @@ impl CanopySection {
     pub fn limit(&self, own_limit_c: f64) -> Result<HeatLimit> {
         match &self.crop {
             Some(c) => Ok(crops::find(&c.crop, &c.stage)?.clone()),
-            None => Ok(HeatLimit::user("this scenario's crop", "as set", own_limit_c, LimitKind::Tissue)),
+            None => Ok(HeatLimit::user(
+                "this scenario's crop",
+                "as set",
+                own_limit_c,
+                LimitKind::Tissue,
+            )),
         }
     }
 
@@ -230,7 +239,13 @@ impl CanopySection {
         let pos = sun::sun_position(&self.site, &self.when)?;
         let light = match self.light {
             LightAbove::ClearSky => sun::ashrae_clear_sky(self.when.month, pos.elevation_rad),
-            LightAbove::Measured { beam_w_m2, diffuse_w_m2 } => HorizontalShortwave { beam_w_m2, diffuse_w_m2 },
+            LightAbove::Measured {
+                beam_w_m2,
+                diffuse_w_m2,
+            } => HorizontalShortwave {
+                beam_w_m2,
+                diffuse_w_m2,
+            },
             LightAbove::Global { global_w_m2 } => {
                 sun::split_global(global_w_m2, self.when.day_of_year(), pos.elevation_rad)?
             }
@@ -250,7 +265,13 @@ impl CanopySection {
         margin_k: f64,
         scenario_dir: Option<&Path>,
     ) -> Result<CanopyRun> {
-        self.run_with_fans(case, own_limit_c, margin_k, scenario_dir, FAN_POWER_DEFAULT_W_M2)
+        self.run_with_fans(
+            case,
+            own_limit_c,
+            margin_k,
+            scenario_dir,
+            FAN_POWER_DEFAULT_W_M2,
+        )
     }
 
     /// As [`CanopySection::run`], with the circulation-fan power per floor area \[W m⁻²\] the
@@ -276,20 +297,34 @@ impl CanopySection {
                     air: case.air,
                     leaf: case.leaf,
                     upper_view: case.surroundings.upper_view,
-                    light: CanopyLight { sun_elevation_rad: elevation, shortwave },
+                    light: CanopyLight {
+                        sun_elevation_rad: elevation,
+                        shortwave,
+                    },
                     structure: self.structure,
                     critical_reynolds: case.critical_reynolds,
                     limit_c: Some(target_limit),
                 };
                 let sol = canopy::solve_canopy(&cc)?;
-                let speed = canopy::least_top_speed(&cc, target_limit, margin_k, self.max_search_speed_m_s)?;
+                let speed = canopy::least_top_speed(
+                    &cc,
+                    target_limit,
+                    margin_k,
+                    self.max_search_speed_m_s,
+                )?;
                 (sol, None, speed, None)
             }
             Some(g) => {
                 let gc = self.greenhouse_case(g, case, elevation, shortwave, target_limit);
                 let sol = greenhouse::solve_greenhouse(&gc)?;
-                let sizing = greenhouse::size(&gc, target_limit, margin_k, self.max_search_speed_m_s)?;
-                (sol.canopy, Some(sol.inside_air_temp_c), sizing.speed, Some(sizing.shade))
+                let sizing =
+                    greenhouse::size(&gc, target_limit, margin_k, self.max_search_speed_m_s)?;
+                (
+                    sol.canopy,
+                    Some(sol.inside_air_temp_c),
+                    sizing.speed,
+                    Some(sizing.shade),
+                )
             }
         };
         let series_case = self.series_case(case, &limit);
@@ -323,7 +358,8 @@ impl CanopySection {
             }
             None => None,
         };
-        let cooling = self.cooling_table(case, &limit, margin_k, elevation, shortwave, fan_power_w_m2)?;
+        let cooling =
+            self.cooling_table(case, &limit, margin_k, elevation, shortwave, fan_power_w_m2)?;
         Ok(CanopyRun {
             sun_elevation_rad: pos.elevation_rad,
             sun_azimuth_rad: pos.azimuth_rad,
@@ -362,7 +398,12 @@ impl CanopySection {
         Ok(Some(match &self.design_day {
             Some(day) => {
                 let series = self.series_case(case, limit);
-                CoolingTable::Day(cooling::compare_design_day(day, &series, &options, run_above_c)?)
+                CoolingTable::Day(cooling::compare_design_day(
+                    day,
+                    &series,
+                    &options,
+                    run_above_c,
+                )?)
             }
             None => {
                 let gc = self.greenhouse_case(g, case, elevation_rad, shortwave, limit.limit_c);
@@ -385,7 +426,10 @@ impl CanopySection {
             air: case.air,
             leaf: case.leaf,
             upper_view: case.surroundings.upper_view,
-            light: CanopyLight { sun_elevation_rad: elevation, shortwave },
+            light: CanopyLight {
+                sun_elevation_rad: elevation,
+                shortwave,
+            },
             structure: self.structure,
             critical_reynolds: case.critical_reynolds,
             limit_c: Some(limit.limit_c),
@@ -411,7 +455,9 @@ impl CanopySection {
         own_limit_c: f64,
     ) -> Result<Option<(DesignDay, SeriesCase)>> {
         let limit = self.limit(own_limit_c)?;
-        Ok(self.design_day.map(|day| (day, self.series_case(case, &limit))))
+        Ok(self
+            .design_day
+            .map(|day| (day, self.series_case(case, &limit))))
     }
 
     /// The engine's greenhouse case for this section at one moment.

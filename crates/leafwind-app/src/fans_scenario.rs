@@ -12,8 +12,8 @@ use anyhow::{Context, Result};
 use leafwind_physics::canopy::CanopyStructure;
 use leafwind_physics::condensation::{self, DewAnswer, DewMargin};
 use leafwind_physics::fans::{
-    self, DiminishingReturns, Estimate, FanEnergy, FanLayout, FanSizing, GENERIC_FANS, HouseForFans,
-    LayoutEstimate, ReadingsSummary,
+    self, DiminishingReturns, Estimate, FanEnergy, FanLayout, FanSizing, GENERIC_FANS,
+    HouseForFans, LayoutEstimate, ReadingsSummary,
 };
 use leafwind_physics::radiation::UpperView;
 use leafwind_physics::{Humidity, LeafCase};
@@ -134,7 +134,10 @@ impl FansSection {
                     tilt_down_rad: self.layout.tilt_down_rad,
                     first_fan_m: self.layout.first_fan_m,
                 };
-                Some((target, fans::size_fans(target, &house, structure, &GENERIC_FANS, Estimate::Typical)?))
+                Some((
+                    target,
+                    fans::size_fans(target, &house, structure, &GENERIC_FANS, Estimate::Typical)?,
+                ))
             }
             None => None,
         };
@@ -145,8 +148,12 @@ impl FansSection {
                     .with_context(|| format!("cannot read the readings file {}", path.display()))?;
                 let import = fans::parse_readings_csv(&text)
                     .with_context(|| format!("in the readings file {}", path.display()))?;
-                let summary = fans::analyse_readings(&import.readings, self.dead_zone_m_s, Some(case), 3)?;
-                Some((summary, import.errors.iter().map(ToString::to_string).collect()))
+                let summary =
+                    fans::analyse_readings(&import.readings, self.dead_zone_m_s, Some(case), 3)?;
+                Some((
+                    summary,
+                    import.errors.iter().map(ToString::to_string).collect(),
+                ))
             }
             None => None,
         };

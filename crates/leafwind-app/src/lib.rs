@@ -14,3 +14,4 @@ pub mod fans_scenario;
 pub mod gui;
 pub mod output;
 pub mod report;
+pub mod shape_scenario;

@@ -20,7 +20,14 @@ fn temp_dir(name: &str) -> PathBuf {
 
 fn json(path: PathBuf) -> serde_json::Value {
     let mut out = Vec::new();
-    run(&CanopyArgs { scenario: path, json: true }, &mut out).unwrap();
+    run(
+        &CanopyArgs {
+            scenario: path,
+            json: true,
+        },
+        &mut out,
+    )
+    .unwrap();
     let text = String::from_utf8(out).unwrap();
     assert!(!text.contains("NaN") && !text.contains("inf"));
     serde_json::from_str(&text).unwrap()
@@ -45,20 +52,38 @@ fn open_field_json_has_the_documented_keys_and_a_design_day() {
     let dir = temp_dir("field");
     let v = json(write(&hot_field(), &dir));
     for key in [
-        "hottest_leaf_temp_c", "hottest_layer", "hottest_leaf_sunlit", "margin_k",
-        "required_wind_m_s", "required_wind_reason", "required_shade_fraction",
-        "required_shade_fraction_reason", "layers", "design_day",
+        "hottest_leaf_temp_c",
+        "hottest_layer",
+        "hottest_leaf_sunlit",
+        "margin_k",
+        "required_wind_m_s",
+        "required_wind_reason",
+        "required_shade_fraction",
+        "required_shade_fraction_reason",
+        "layers",
+        "design_day",
     ] {
         assert!(v.get(key).is_some(), "missing {key}");
     }
     assert_eq!(v["layers"].as_array().unwrap().len(), 20);
     // Open field: no shade answer, and the reason says why.
     assert!(v["required_shade_fraction"].is_null());
-    assert!(v["required_shade_fraction_reason"].as_str().unwrap().contains("greenhouse"));
+    assert!(
+        v["required_shade_fraction_reason"]
+            .as_str()
+            .unwrap()
+            .contains("greenhouse")
+    );
     let day = &v["design_day"];
     let steps = day["steps"].as_array().unwrap();
     assert!(steps.len() >= 24);
-    for key in ["time", "sun_elevation_deg", "sun_azimuth_deg", "air_temp_c", "hottest_leaf_temp_c"] {
+    for key in [
+        "time",
+        "sun_elevation_deg",
+        "sun_azimuth_deg",
+        "air_temp_c",
+        "hottest_leaf_temp_c",
+    ] {
         assert!(steps[12].get(key).is_some(), "step missing {key}");
     }
     assert!(day["hours_over_limit"].as_f64().unwrap() >= 0.0);
@@ -139,7 +164,17 @@ fn scenario_without_canopy_is_a_named_error() {
     let dir = temp_dir("none");
     let path = write(&ScenarioDocument::default(), &dir);
     let mut out = Vec::new();
-    let err = run(&CanopyArgs { scenario: path.clone(), json: false }, &mut out).unwrap_err();
+    let err = run(
+        &CanopyArgs {
+            scenario: path.clone(),
+            json: false,
+        },
+        &mut out,
+    )
+    .unwrap_err();
     let msg = format!("{err:#}");
-    assert!(msg.contains("no canopy section") && msg.contains(&path.display().to_string()), "{msg}");
+    assert!(
+        msg.contains("no canopy section") && msg.contains(&path.display().to_string()),
+        "{msg}"
+    );
 }

@@ -18,7 +18,14 @@ fn temp_dir(name: &str) -> PathBuf {
 
 fn json(path: PathBuf) -> serde_json::Value {
     let mut out = Vec::new();
-    run(&FansArgs { scenario: path, json: true }, &mut out).unwrap();
+    run(
+        &FansArgs {
+            scenario: path,
+            json: true,
+        },
+        &mut out,
+    )
+    .unwrap();
     let text = String::from_utf8(out).unwrap();
     assert!(!text.contains("NaN") && !text.contains("inf"));
     serde_json::from_str(&text).unwrap()
@@ -32,18 +39,20 @@ fn layout_gives_an_ordered_range_and_answers() {
         "position_m,height_m,speed_m_s\n5,1.8,0.6\n20,1.8,0.15\n35,1.8,abc\n50,1.8,0.4\n",
     )
     .unwrap();
-    let mut doc = ScenarioDocument::default();
-    doc.fans = Some(FansSection {
-        target_canopy_speed_m_s: Some(0.5),
-        readings_csv: Some("spots.csv".into()),
-        night: Some(NightCheck {
-            air_temp_c: 14.0,
-            humidity: Humidity::RelativePct(92.0),
-            upper_view: UpperView::ClearSky,
-            margin_k: 0.5,
+    let doc = ScenarioDocument {
+        fans: Some(FansSection {
+            target_canopy_speed_m_s: Some(0.5),
+            readings_csv: Some("spots.csv".into()),
+            night: Some(NightCheck {
+                air_temp_c: 14.0,
+                humidity: Humidity::RelativePct(92.0),
+                upper_view: UpperView::ClearSky,
+                margin_k: 0.5,
+            }),
+            ..FansSection::default()
         }),
-        ..FansSection::default()
-    });
+        ..ScenarioDocument::default()
+    };
     let v = json(write(&doc, &dir));
     for which in ["canopy_speed_min", "canopy_speed_mean"] {
         let r = &v[which];
@@ -67,6 +76,13 @@ fn scenario_without_fans_is_a_named_error() {
     let dir = temp_dir("none");
     let path = write(&ScenarioDocument::default(), &dir);
     let mut out = Vec::new();
-    let err = run(&FansArgs { scenario: path, json: false }, &mut out).unwrap_err();
+    let err = run(
+        &FansArgs {
+            scenario: path,
+            json: false,
+        },
+        &mut out,
+    )
+    .unwrap_err();
     assert!(format!("{err:#}").contains("no fans section"));
 }

@@ -21,7 +21,16 @@ fn run(a: &solve::SolveArgs) -> (anyhow::Result<std::process::ExitCode>, String)
 }
 
 const BASE: [&str; 10] = [
-    "--air-temp", "32", "--rh", "55", "--wind", "0.3", "--leaf-size", "0.08", "--sun", "600",
+    "--air-temp",
+    "32",
+    "--rh",
+    "55",
+    "--wind",
+    "0.3",
+    "--leaf-size",
+    "0.08",
+    "--sun",
+    "600",
 ];
 
 #[test]
@@ -32,11 +41,26 @@ fn json_has_every_documented_key() {
     r.unwrap();
     let v: serde_json::Value = serde_json::from_str(&text).unwrap();
     for key in [
-        "leaf_temp_c", "leaf_air_diff_k", "absorbed_w_m2", "emitted_w_m2", "sensible_w_m2",
-        "latent_w_m2", "residual_w_m2", "transpiration_mmol_m2_s", "heat_transfer_coeff_w_m2_k",
-        "bl_vapour_conductance_mol_m2_s", "total_vapour_conductance_mol_m2_s", "reynolds",
-        "grashof", "regime", "bl_thickness_mm", "effective_bl_thickness_mm",
-        "linearised_leaf_temp_c", "iterations", "required_wind_m_s", "required_wind_reason",
+        "leaf_temp_c",
+        "leaf_air_diff_k",
+        "absorbed_w_m2",
+        "emitted_w_m2",
+        "sensible_w_m2",
+        "latent_w_m2",
+        "residual_w_m2",
+        "transpiration_mmol_m2_s",
+        "heat_transfer_coeff_w_m2_k",
+        "bl_vapour_conductance_mol_m2_s",
+        "total_vapour_conductance_mol_m2_s",
+        "reynolds",
+        "grashof",
+        "regime",
+        "bl_thickness_mm",
+        "effective_bl_thickness_mm",
+        "linearised_leaf_temp_c",
+        "iterations",
+        "required_wind_m_s",
+        "required_wind_reason",
     ] {
         assert!(v.get(key).is_some(), "missing {key}");
     }
@@ -88,7 +112,10 @@ fn batch_reports_bad_rows_and_solves_the_rest() {
     drop(f);
     let path_text = path.to_string_lossy().into_owned();
     let (r, text) = run(&args(&["--batch", &path_text]));
-    assert!(r.is_err(), "failed rows make the command fail after the others ran");
+    assert!(
+        r.is_err(),
+        "failed rows make the command fail after the others ran"
+    );
     let mut reader = csv::Reader::from_reader(text.as_bytes());
     let rows: Vec<csv::StringRecord> = reader.records().map(Result::unwrap).collect();
     assert_eq!(rows.len(), 4);

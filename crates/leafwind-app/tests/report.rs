@@ -275,7 +275,14 @@ fn check_report(name: &str, doc: &ScenarioDocument, units: UnitSystem) {
         let header = r.headers().unwrap().clone();
         // Columns that are labels, counts or clock times rather than quantities.
         let text_columns = [
-            "quantity", "value", "unit", "note", "term", "direction", "layer_from_top", "time",
+            "quantity",
+            "value",
+            "unit",
+            "note",
+            "term",
+            "direction",
+            "layer_from_top",
+            "time",
             "error",
         ];
         let mut with_unit = 0;

@@ -104,6 +104,7 @@ const MIN_SIN_ELEVATION: f64 = 1e-3;
 /// How the leaves are inclined.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub enum LeafAngle {
     /// Spherical (random) distribution: K_b = 0.5 / sin β exactly (\[CN98\] ch. 15).
     Spherical,
@@ -258,6 +259,7 @@ pub fn beam_reflection(absorptivity: f64, beam_extinction: f64) -> f64 {
 /// The structure of a canopy.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct CanopyStructure {
     /// Leaf area index L \[m² leaf m⁻² ground\].
     pub lai: f64,
@@ -308,6 +310,7 @@ impl CanopyStructure {
 /// Light above the canopy.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct CanopyLight {
     /// Sun elevation β \[rad\].
     pub sun_elevation_rad: f64,
@@ -350,6 +353,7 @@ impl CanopyLight {
 /// One canopy case: the air at the canopy top, the leaves, what is above, the light and the structure.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct CanopyCase {
     /// Air at the canopy top; `speed_m_s` is the canopy-top air speed u_h. The air temperature and
     /// humidity are taken as uniform through the canopy.
@@ -432,6 +436,7 @@ impl CanopyCase {
 /// leaf absorptivity and reused over a day or a year.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct CanopyOptics {
     /// Leaf-angle distribution.
     pub leaf_angle: LeafAngle,
@@ -466,6 +471,7 @@ impl CanopyOptics {
 /// area index `lai` \[W m⁻²\].
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct AbsorbedShortwave {
     /// By a sunlit leaf \[W m⁻²\].
     pub sunlit_w_m2: f64,
@@ -519,6 +525,7 @@ pub fn absorbed_shortwave(
 /// One layer's result.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct LayerResult {
     /// Height of the layer's middle above the ground \[m\].
     pub height_m: f64,
@@ -551,6 +558,7 @@ pub struct LayerResult {
 /// The hottest leaf of the canopy.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct HottestLeaf {
     /// Layer index counted from the top (0 = top layer).
     pub layer: usize,
@@ -567,6 +575,7 @@ pub struct HottestLeaf {
 /// The solved canopy. Fluxes "per ground area" are sums over layers of leaf fluxes × layer LAI.
 #[derive(Debug, Clone, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct CanopySolution {
     /// Layers from the top down.
     pub layers: Vec<LayerResult>,
@@ -791,6 +800,7 @@ pub fn solve_with_optics(case: &CanopyCase, optics: &CanopyOptics) -> Result<Can
 /// Why no canopy-top air speed meets the target.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub enum SpeedObstacle {
     /// The air around the crop is at or above the target: more air only brings leaves toward it.
     AirTooHot {
@@ -838,6 +848,7 @@ impl SpeedObstacle {
 /// The least canopy-top air speed that keeps the hottest leaf at or below the target.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub enum SpeedAnswer {
     /// Still air already meets the target.
     NotNeeded {

@@ -59,6 +59,7 @@ pub const EMISSIVITY_DEFAULT: f64 = 0.97;
 /// The air around the leaf.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct Air {
     /// Air temperature \[°C\].
     pub temp_c: f64,
@@ -87,6 +88,7 @@ impl Default for Air {
 /// The leaf: size, optical properties and stomata.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct Leaf {
     /// Characteristic dimension along the wind \[m\].
     pub dimension_m: f64,
@@ -132,6 +134,7 @@ impl Leaf {
 /// What the leaf sees: sun, sky or cover above, ground below.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct Surroundings {
     /// Shortwave irradiance on the upper face, direct plus diffuse \[W m⁻²\].
     pub shortwave_w_m2: f64,
@@ -157,6 +160,7 @@ impl Default for Surroundings {
 /// One leaf case: everything the energy balance needs.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct LeafCase {
     /// The air.
     pub air: Air,

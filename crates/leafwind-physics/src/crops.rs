@@ -18,6 +18,7 @@ use crate::required_wind::LIMIT_RANGE_C;
 /// Which temperature a limit applies to.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub enum LimitKind {
     /// The air around the crop (most agronomic thresholds are stated for air).
     Air,
@@ -39,6 +40,7 @@ impl LimitKind {
 /// One heat limit with its source.
 #[derive(Debug, Clone, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct HeatLimit {
     /// Crop name, lower case (e.g. "tomato").
     pub crop: Cow<'static, str>,

@@ -38,6 +38,7 @@ pub const ASHRAE2009_RANGE_FRACTIONS: [f64; 24] = [
 /// The shape of the day's temperature between its minimum and maximum.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub enum DiurnalShape {
     /// \[ASHRAE2009\] Table 6 (minimum at 05:00, maximum 14:00–15:00), linear between table hours.
     Ashrae2009,
@@ -80,6 +81,7 @@ pub fn diurnal_temp_c(shape: DiurnalShape, max_c: f64, min_c: f64, hour: f64) ->
 /// The humidity of a design day, held at one vapour pressure all day (common practice, no source).
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub enum DayHumidity {
     /// The day's dew point \[°C\].
     DewPointC(f64),
@@ -90,6 +92,7 @@ pub enum DayHumidity {
 /// A design day.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct DesignDay {
     /// The date (its clock time is ignored).
     pub date: DateTime,
@@ -126,6 +129,7 @@ impl Default for DesignDay {
 /// A greenhouse around the crop for an hourly run (the inside air from the ventilation balance).
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct GreenhouseSetup {
     /// The cover.
     pub cover: Cover,
@@ -151,6 +155,7 @@ impl Default for GreenhouseSetup {
 /// Where the crop grows.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub enum Environment {
     /// In the open under the sky.
     OpenField,
@@ -161,6 +166,7 @@ pub enum Environment {
 /// Everything an hourly run needs besides the weather.
 #[derive(Debug, Clone, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct SeriesCase {
     /// The place.
     pub site: Site,
@@ -207,6 +213,7 @@ pub const WIND_FACTOR_RANGE: ValidRange = ValidRange {
 /// The sunlight of one hour.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub enum HourLight {
     /// Clear sky by \[ASHRAE1985\] (see [`crate::sun::ashrae_clear_sky`]).
     ClearSky,
@@ -217,6 +224,7 @@ pub enum HourLight {
 /// One hour's weather.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct HourWeather {
     /// Local clock time.
     pub time: DateTime,
@@ -235,6 +243,7 @@ pub struct HourWeather {
 /// One hour's result.
 #[derive(Debug, Clone, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct HourResult {
     /// Local clock time.
     pub time: DateTime,
@@ -263,6 +272,7 @@ pub struct HourResult {
 /// A run of hours and its summary.
 #[derive(Debug, Clone, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct HourlySeries {
     /// The hours in order.
     pub hours: Vec<HourResult>,

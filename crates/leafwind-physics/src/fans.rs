@@ -172,6 +172,7 @@ pub const THROW_TERMINAL_SPEED_M_S: f64 = 0.25;
 /// The coefficients of a round turbulent free jet.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct JetCoefficients {
     /// Centreline decay constant B in u_c/u₀ = B d/(x − x₀) \[–\].
     pub decay_constant: f64,
@@ -374,6 +375,7 @@ pub fn attenuation_from_lai(lai: f64, drag_coefficient: f64, mixing_length_ratio
 /// One fan model: its rated airflow and blade diameter.
 #[derive(Debug, Clone, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct FanModel {
     /// A label for the user.
     pub label: Cow<'static, str>,
@@ -445,6 +447,7 @@ impl FanModel {
 /// How the jets of several fans are combined at one point.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub enum Superposition {
     /// The fastest single jet: a lower bound, since a fan downstream re-accelerates air that
     /// already moves and jets in series never cancel (no source; a conservative choice).
@@ -462,6 +465,7 @@ pub enum Superposition {
 /// toward −x at x = L − first − k · spacing.
 #[derive(Debug, Clone, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct FanLayout {
     /// The fan model.
     pub fan: FanModel,
@@ -503,6 +507,7 @@ impl Default for FanLayout {
 /// A fan's position and direction.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct FanPosition {
     /// Along the house \[m\].
     pub x_m: f64,
@@ -670,6 +675,7 @@ fn combine(speeds: impl Iterator<Item = f64>, s: Superposition) -> f64 {
 /// A low / typical / high estimate \[m s⁻¹\].
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct SpeedRange {
     /// Low estimate: [`JET_LOW`], [`Superposition::Max`] \[m s⁻¹\].
     pub low_m_s: f64,
@@ -682,6 +688,7 @@ pub struct SpeedRange {
 /// Which estimate of a [`SpeedRange`] a design question uses.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub enum Estimate {
     /// The low estimate (the cautious choice for design).
     Low,
@@ -728,6 +735,7 @@ fn range_at(
 /// One sample along a row line.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct ProfilePoint {
     /// Along the house \[m\].
     pub x_m: f64,
@@ -745,6 +753,7 @@ pub struct ProfilePoint {
 /// Rules of thumb beside the jet estimate (all common practice).
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct RulesOfThumb {
     /// Installed airflow per floor area \[m³ s⁻¹ m⁻²\].
     pub installed_m3_s_m2: f64,
@@ -763,6 +772,7 @@ pub struct RulesOfThumb {
 /// The air speed over the crop along the house from a fan layout.
 #[derive(Debug, Clone, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct LayoutEstimate {
     /// Samples along each row line, row by row.
     pub points: Vec<ProfilePoint>,
@@ -918,6 +928,7 @@ pub fn estimate_layout(layout: &FanLayout, structure: &CanopyStructure) -> Resul
 /// The house, crop and mounting for the inverse question.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct HouseForFans {
     /// House length \[m\].
     pub length_m: f64,
@@ -953,6 +964,7 @@ pub const MIN_SERIES_SPACING_M: f64 = 3.0;
 /// The answer to "which fans give at least this canopy-top speed over the whole house?".
 #[derive(Debug, Clone, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub enum FanSizing {
     /// The layouts that reach the target, one per fan model that can (fewest fans first, then
     /// lowest power).
@@ -1090,6 +1102,7 @@ pub fn size_fans(
 /// One anemometer reading.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct SpotReading {
     /// Position along the house \[m\].
     pub position_m: f64,
@@ -1102,6 +1115,7 @@ pub struct SpotReading {
 /// Readings parsed from a CSV text, with the rows that were rejected.
 #[derive(Debug, Clone, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct ReadingsImport {
     /// The good rows, in order.
     pub readings: Vec<SpotReading>,
@@ -1188,6 +1202,7 @@ pub fn parse_readings_csv(text: &str) -> Result<ReadingsImport> {
 /// A slow spot and its predicted leaf.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct SlowSpot {
     /// The reading.
     pub reading: SpotReading,
@@ -1198,6 +1213,7 @@ pub struct SlowSpot {
 /// What a set of readings says.
 #[derive(Debug, Clone, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct ReadingsSummary {
     /// Number of readings.
     pub count: usize,
@@ -1318,6 +1334,7 @@ pub const RETURNS_STEP_M_S: f64 = 0.1;
 /// One step of the sweep.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct ReturnsStep {
     /// Air speed \[m s⁻¹\].
     pub speed_m_s: f64,
@@ -1332,6 +1349,7 @@ pub struct ReturnsStep {
 /// Where more air stops paying, and where it hurts.
 #[derive(Debug, Clone, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct DiminishingReturns {
     /// The sweep.
     pub steps: Vec<ReturnsStep>,
@@ -1517,6 +1535,7 @@ pub fn cfm_per_w_to_m3_s_w(cfm_per_w: f64) -> f64 {
 /// Fan energy over a run.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct FanEnergy {
     /// Electrical power of all fans \[W\].
     pub power_w: f64,

@@ -101,6 +101,7 @@ pub const INSIDE_SPEED_DEFAULT_M_S: f64 = 0.5;
 /// The temperature of the cover for the crop's longwave exchange.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub enum CoverTemperature {
     /// Measured or chosen \[°C\].
     GivenC(f64),
@@ -111,6 +112,7 @@ pub enum CoverTemperature {
 /// The cover.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct Cover {
     /// Solar transmittance, beam and diffuse alike \[–\].
     pub transmittance: f64,
@@ -133,6 +135,7 @@ impl Default for Cover {
 /// How the inside air is known.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub enum InsideAir {
     /// Measured or set: temperature \[°C\] and humidity.
     Given {
@@ -151,6 +154,7 @@ pub enum InsideAir {
 /// The weather outside.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct Outside {
     /// Outside air temperature \[°C\].
     pub air_temp_c: f64,
@@ -183,6 +187,7 @@ impl Default for Outside {
 /// One greenhouse case.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct GreenhouseCase {
     /// The weather outside.
     pub outside: Outside,
@@ -329,6 +334,7 @@ impl GreenhouseCase {
 /// The solved greenhouse. Fluxes per unit floor area.
 #[derive(Debug, Clone, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct GreenhouseSolution {
     /// Inside air temperature \[°C\].
     pub inside_air_temp_c: f64,
@@ -558,6 +564,7 @@ pub fn solve_greenhouse_with_optics(
 /// The least shade that keeps the hottest leaf at or below the target.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub enum ShadeAnswer {
     /// No shade is needed.
     NotNeeded {
@@ -629,6 +636,7 @@ impl ShadeAnswer {
 /// Both sizing answers for one greenhouse case.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct Sizing {
     /// The least canopy-top air speed at the case's shade.
     pub speed: SpeedAnswer,

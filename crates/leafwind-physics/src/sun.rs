@@ -73,6 +73,7 @@ pub const YEAR_RANGE: ValidRange = ValidRange {
 /// A place on the Earth.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct Site {
     /// Latitude \[°\], north positive.
     pub latitude_deg: f64,
@@ -119,6 +120,7 @@ impl Site {
 /// A civil date and clock time (Gregorian calendar), in the site's local time.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct DateTime {
     /// Year, e.g. 2026.
     pub year: i32,
@@ -252,6 +254,7 @@ impl std::fmt::Display for DateTime {
 /// Where the sun stands.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct SunPosition {
     /// Elevation above the horizon β \[rad\], refraction included (negative at night).
     pub elevation_rad: f64,
@@ -446,6 +449,7 @@ pub fn extraterrestrial_horizontal_w_m2(day_of_year: u32, elevation_rad: f64) ->
 /// Shortwave on a horizontal surface split into its beam and diffuse parts.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
+#[cfg_attr(feature = "serde", serde(deny_unknown_fields))]
 pub struct HorizontalShortwave {
     /// Beam (direct) irradiance on the horizontal surface, E_DN sin β \[W m⁻²\].
     pub beam_w_m2: f64,

@@ -153,7 +153,10 @@ pub struct CoolingRecord {
 }
 
 fn time_text(t: &DateTime) -> String {
-    format!("{:04}-{:02}-{:02} {:02}:{:02}", t.year, t.month, t.day, t.hour, t.minute)
+    format!(
+        "{:04}-{:02}-{:02} {:02}:{:02}",
+        t.year, t.month, t.day, t.hour, t.minute
+    )
 }
 
 fn series_record(
@@ -226,7 +229,10 @@ impl CanopyRecord {
                 })
                 .collect(),
             design_day: run.design_day.as_ref().map(|s| series_record(s, site, &[])),
-            weather: run.weather.as_ref().map(|(s, bad)| series_record(s, site, bad)),
+            weather: run
+                .weather
+                .as_ref()
+                .map(|(s, bad)| series_record(s, site, bad)),
             dew_hours_below_dew_point: run.dew.as_ref().map(|d| d.hours_below_dew_point),
             dew_hours_below_margin: run.dew.as_ref().map(|d| d.hours_below_margin),
             dew_margin_k: run.dew.as_ref().map(|d| d.margin_k),
@@ -302,7 +308,11 @@ pub fn run(args: &CanopyArgs, out: &mut impl Write) -> Result<ExitCode> {
         return Ok(ExitCode::SUCCESS);
     }
     writeln!(out, "{}", r.title)?;
-    writeln!(out, "Sun {:.1}° high, azimuth {:.0}°", r.sun_elevation_deg, r.sun_azimuth_deg)?;
+    writeln!(
+        out,
+        "Sun {:.1}° high, azimuth {:.0}°",
+        r.sun_elevation_deg, r.sun_azimuth_deg
+    )?;
     if let Some(t) = r.inside_air_temp_c {
         writeln!(out, "Inside air {t:.1} °C")?;
     }
@@ -310,7 +320,11 @@ pub fn run(args: &CanopyArgs, out: &mut impl Write) -> Result<ExitCode> {
         out,
         "Hottest leaf {:.1} °C ({} leaf in layer {} from the top); limit {:.1} °C ({}), margin {:+.1} K",
         r.hottest_leaf_temp_c,
-        if r.hottest_leaf_sunlit { "sunlit" } else { "shaded" },
+        if r.hottest_leaf_sunlit {
+            "sunlit"
+        } else {
+            "shaded"
+        },
         r.hottest_layer,
         r.limit_c,
         r.limit_kind,
@@ -318,11 +332,17 @@ pub fn run(args: &CanopyArgs, out: &mut impl Write) -> Result<ExitCode> {
     )?;
     writeln!(out, "Air speed: {}", r.required_wind_reason)?;
     writeln!(out, "Shade: {}", r.required_shade_fraction_reason)?;
-    writeln!(out, "{:>5} {:>8} {:>9} {:>9} {:>10} {:>10}", "layer", "height m", "LAI above", "sunlit %", "air m/s", "leaf °C")?;
+    writeln!(
+        out,
+        "{:>5} {:>8} {:>9} {:>9} {:>10} {:>10}",
+        "layer", "height m", "LAI above", "sunlit %", "air m/s", "leaf °C"
+    )?;
     for l in &r.layers {
-        let leaf = l.sunlit_leaf_temp_c.map_or(format!("{:.1}", l.shaded_leaf_temp_c), |s| {
-            format!("{s:.1}/{:.1}", l.shaded_leaf_temp_c)
-        });
+        let leaf = l
+            .sunlit_leaf_temp_c
+            .map_or(format!("{:.1}", l.shaded_leaf_temp_c), |s| {
+                format!("{s:.1}/{:.1}", l.shaded_leaf_temp_c)
+            });
         writeln!(
             out,
             "{:>5} {:>8.2} {:>9.2} {:>9.0} {:>10.2} {:>10}",
@@ -341,24 +361,34 @@ pub fn run(args: &CanopyArgs, out: &mut impl Write) -> Result<ExitCode> {
                 "{name}: {:.0} h over the limit, {:.1} K·h over it, smallest margin {}",
                 s.hours_over_limit,
                 s.degree_hours_over_limit,
-                s.min_margin_k.map_or("—".to_owned(), |m| format!("{m:+.1} K"))
+                s.min_margin_k
+                    .map_or("—".to_owned(), |m| format!("{m:+.1} K"))
             )?;
             for row in &s.rejected_rows {
                 writeln!(out, "  rejected {row}")?;
             }
         }
     }
-    if let (Some(below), Some(margin_h), Some(m)) =
-        (r.dew_hours_below_dew_point, r.dew_hours_below_margin, r.dew_margin_k)
-    {
+    if let (Some(below), Some(margin_h), Some(m)) = (
+        r.dew_hours_below_dew_point,
+        r.dew_hours_below_margin,
+        r.dew_margin_k,
+    ) {
         writeln!(
             out,
             "Night dew over the design day: {below:.0} h with leaves below the dew point, {margin_h:.0} h within {m:.1} K of it"
         )?;
     }
     if !r.cooling_options.is_empty() {
-        writeln!(out, "Cooling and shading options (estimates; defaults cited in the engine):")?;
-        writeln!(out, "{:<22} {:>12} {:>10} {:>10} {:>12}", "option", "hottest °C", "margin K", "h over", "water L/m²")?;
+        writeln!(
+            out,
+            "Cooling and shading options (estimates; defaults cited in the engine):"
+        )?;
+        writeln!(
+            out,
+            "{:<22} {:>12} {:>10} {:>10} {:>12}",
+            "option", "hottest °C", "margin K", "h over", "water L/m²"
+        )?;
         for o in &r.cooling_options {
             let opt = |v: Option<f64>, d: usize| v.map_or("—".to_owned(), |x| format!("{x:.d$}"));
             writeln!(
@@ -368,7 +398,11 @@ pub fn run(args: &CanopyArgs, out: &mut impl Write) -> Result<ExitCode> {
                 opt(o.hottest_leaf_temp_c, 1),
                 opt(o.margin_k, 1),
                 opt(o.hours_over_limit, 0),
-                format!("{:.2}{}", o.water_l_m2, if o.water_per_hour { "/h" } else { "" })
+                format!(
+                    "{:.2}{}",
+                    o.water_l_m2,
+                    if o.water_per_hour { "/h" } else { "" }
+                )
             )?;
         }
     }

@@ -137,7 +137,11 @@ impl FansRecord {
                 .readings
                 .as_ref()
                 .and_then(|(s, _)| serde_json::to_value(s).ok()),
-            rejected_readings: run.readings.as_ref().map(|(_, r)| r.clone()).unwrap_or_default(),
+            rejected_readings: run
+                .readings
+                .as_ref()
+                .map(|(_, r)| r.clone())
+                .unwrap_or_default(),
             more_air_stops_helping_m_s: run.returns.knee_m_s,
             more_air_warms_from_m_s: run.returns.warming_from_m_s,
             more_air_raises_transpiration_from_m_s: run.returns.more_transpiration_from_m_s,
@@ -160,7 +164,10 @@ pub fn record(args: &FansArgs) -> Result<FansRecord> {
     let doc = ScenarioDocument::load(&args.scenario)
         .map_err(|e| anyhow!("{e} in {}", args.scenario.display()))?;
     let section = doc.fans.as_ref().ok_or_else(|| {
-        anyhow!("the scenario has no fans section (add `fans: Some((layout: (…)))`) in {}", args.scenario.display())
+        anyhow!(
+            "the scenario has no fans section (add `fans: Some((layout: (…)))`) in {}",
+            args.scenario.display()
+        )
     })?;
     let structure = doc.canopy.as_ref().map(|c| c.structure).unwrap_or_default();
     let run = section.run(&doc.case, &structure, args.scenario.parent())?;
@@ -178,18 +185,33 @@ pub fn run(args: &FansArgs, out: &mut impl Write) -> Result<ExitCode> {
         writeln!(out)?;
         return Ok(ExitCode::SUCCESS);
     }
-    let range = |x: &RangeRecord| format!("{:.2} m/s (range {:.2}–{:.2})", x.typical_m_s, x.low_m_s, x.high_m_s);
+    let range = |x: &RangeRecord| {
+        format!(
+            "{:.2} m/s (range {:.2}–{:.2})",
+            x.typical_m_s, x.low_m_s, x.high_m_s
+        )
+    };
     writeln!(out, "{}", r.title)?;
-    writeln!(out, "Canopy-top air speed, slowest {}, mean {}", range(&r.canopy_speed_min), range(&r.canopy_speed_mean))?;
+    writeln!(
+        out,
+        "Canopy-top air speed, slowest {}, mean {}",
+        range(&r.canopy_speed_min),
+        range(&r.canopy_speed_mean)
+    )?;
     writeln!(out, "  {}", r.estimate_note)?;
     writeln!(
         out,
         "Rules of thumb (common practice): airflow {:.3} m³/s per m² installed vs {:.3} suggested ({}); throw {:.0} m by rule, {} by the jet model",
         r.installed_airflow_m3_s_m2,
         r.rule_of_thumb_airflow_m3_s_m2,
-        if r.meets_airflow_rule { "met" } else { "not met" },
+        if r.meets_airflow_rule {
+            "met"
+        } else {
+            "not met"
+        },
         r.rule_of_thumb_throw_m,
-        r.jet_throw_m.map_or("—".to_owned(), |t| format!("{t:.0} m"))
+        r.jet_throw_m
+            .map_or("—".to_owned(), |t| format!("{t:.0} m"))
     )?;
     if let Some(s) = &r.sizing_reason {
         writeln!(out, "For the target: {s}")?;
@@ -206,6 +228,9 @@ pub fn run(args: &FansArgs, out: &mut impl Write) -> Result<ExitCode> {
     if let Some(n) = &r.night_reason {
         writeln!(out, "Night: {n}")?;
     }
-    writeln!(out, "Fan and electrical installations: follow local codes and use a licensed electrician.")?;
+    writeln!(
+        out,
+        "Fan and electrical installations: follow local codes and use a licensed electrician."
+    )?;
     Ok(ExitCode::SUCCESS)
 }

@@ -7,6 +7,7 @@ use std::time::{Duration, Instant};
 
 use egui::{Align, Color32, Layout, Modal, RichText, TextEdit, Ui, ViewportCommand};
 
+use super::autosave::{Autosave, AutosaveFile};
 use super::commands::{Command, PlotKind};
 use super::compute::{
     BoundaryInput, BoundaryResult, LeafResult, MapInput, MapResult, SweepInput, SweepResult,
@@ -14,11 +15,16 @@ use super::compute::{
 };
 use super::document::{EXAMPLES, ScenarioDocument, first_example};
 use super::export;
+use super::file_safety::FileStamp;
 use super::panels::about::{AboutPanel, CAUTIONS};
 use super::panels::boundary::BoundaryPanel;
+use super::panels::canopy::{CanopyInput, CanopyPanel, CanopyView, compute_canopy};
+use super::panels::compare::ComparePanel;
+use super::panels::fans::{FansInput, FansPanel, FansView, compute_fans};
 use super::panels::inputs::InputsPanel;
 use super::panels::map::MapPanel;
 use super::panels::result::ResultPanel;
+use super::panels::shape::ShapePanel;
 use super::panels::sweep::SweepPanel;
 use super::prefs::{PREFS_KEY, PlotTab, UiPrefs};
 use super::worker::Job;
@@ -101,11 +107,17 @@ pub struct LeafwindApp {
     map: Job<MapInput, MapResult>,
     map_preview: Job<MapInput, MapResult>,
     boundary: Job<BoundaryInput, BoundaryResult>,
+    canopy: Job<CanopyInput, crate::canopy_scenario::CanopyRun>,
+    fans: Job<FansInput, crate::fans_scenario::FansRun>,
     inputs_panel: InputsPanel,
     result_panel: ResultPanel,
     sweep_panel: SweepPanel,
     map_panel: MapPanel,
     boundary_panel: BoundaryPanel,
+    canopy_panel: CanopyPanel,
+    fans_panel: FansPanel,
+    shape_panel: ShapePanel,
+    compare_panel: ComparePanel,
     about_panel: AboutPanel,
     commands: Vec<Command>,
     confirm: Option<Command>,
@@ -118,6 +130,16 @@ pub struct LeafwindApp {
     shown_title: String,
     frame_ms: f64,
     exit_code: Arc<Mutex<Option<String>>>,
+    /// Crash recovery (off in tests unless asked for, and for screenshots).
+    autosave: Option<Autosave>,
+    /// An autosave from an earlier run, offered for restoring.
+    restore_offer: Option<AutosaveFile>,
+    /// What the document's file held when it was opened or last saved.
+    stamp: Option<FileStamp>,
+    /// A save waiting for "Overwrite" because the file changed on disk.
+    overwrite_confirm: Option<PathBuf>,
+    /// When the next autosave step is due, while one is pending.
+    autosave_due: Option<Duration>,
 }
 
 impl LeafwindApp {
@@ -134,11 +156,17 @@ impl LeafwindApp {
             map: Job::new(compute_map, inline),
             map_preview: Job::new(compute_map, inline),
             boundary: Job::new(compute_boundary, inline),
+            canopy: Job::new(compute_canopy, inline),
+            fans: Job::new(compute_fans, inline),
             inputs_panel: InputsPanel::default(),
             result_panel: ResultPanel::default(),
             sweep_panel: SweepPanel::default(),
             map_panel: MapPanel::default(),
             boundary_panel: BoundaryPanel::default(),
+            canopy_panel: CanopyPanel::default(),
+            fans_panel: FansPanel::default(),
+            shape_panel: ShapePanel::new(inline),
+            compare_panel: ComparePanel::new(inline),
             about_panel: AboutPanel::default(),
             commands: Vec::new(),
             confirm: None,
@@ -151,6 +179,11 @@ impl LeafwindApp {
             shown_title: String::new(),
             frame_ms: 0.0,
             exit_code: Arc::new(Mutex::new(None)),
+            autosave: None,
+            restore_offer: None,
+            stamp: None,
+            overwrite_confirm: None,
+            autosave_due: None,
         }
     }
 
@@ -187,6 +220,10 @@ impl LeafwindApp {
             p.layout.tab = match std::env::var("LEAFWIND_SCREENSHOT_TAB").as_deref() {
                 Ok("map") => PlotTab::Map,
                 Ok("boundary") => PlotTab::BoundaryLayer,
+                Ok("canopy") => PlotTab::Canopy,
+                Ok("fans") => PlotTab::Fans,
+                Ok("shape") => PlotTab::Shape,
+                Ok("compare") => PlotTab::Compare,
                 _ => PlotTab::Sweep,
             };
             if std::env::var("LEAFWIND_SCREENSHOT_UNITS").as_deref() == Ok("imperial") {
@@ -216,6 +253,22 @@ impl LeafwindApp {
             requested: false,
             done: Arc::new(Mutex::new(None)),
         });
+        if app.screenshot.is_some() && app.prefs.layout.tab == PlotTab::Compare {
+            // Something to compare on the screenshot: the scenario, a smaller and a larger leaf.
+            let doc = app.doc.clone();
+            app.compare_panel.add_copy(&doc, Some("As opened"));
+            for (name, factor) in [("Leaf half the size", 0.5), ("Leaf twice the size", 2.0)] {
+                let mut d = doc.clone();
+                d.case.leaf.dimension_m = (d.case.leaf.dimension_m * factor).clamp(0.001, 1.0);
+                d.case.leaf.free_convection_length_m = None;
+                app.compare_panel.add_copy(&d, Some(name));
+            }
+        }
+        if app.screenshot.is_none()
+            && let Some(dir) = super::autosave::data_dir()
+        {
+            app = app.with_autosave(dir, super::autosave::AUTOSAVE_DELAY);
+        }
         app.refresh_leaf();
         app
     }
@@ -298,6 +351,40 @@ impl LeafwindApp {
         self.sweep.is_current() && self.map.is_current() && self.boundary.is_current()
     }
 
+    /// The last valid canopy run (the "Canopy & day" tab).
+    #[must_use]
+    pub fn canopy_run(&self) -> Option<&crate::canopy_scenario::CanopyRun> {
+        self.canopy.result()
+    }
+
+    /// The last valid fans run (the "Fans & night" tab).
+    #[must_use]
+    pub fn fans_run(&self) -> Option<&crate::fans_scenario::FansRun> {
+        self.fans.result()
+    }
+
+    /// The leaf-shape view (tests).
+    #[must_use]
+    pub fn shape_panel(&self) -> &ShapePanel {
+        &self.shape_panel
+    }
+
+    /// The leaf-shape view, to import an outline as its path field would (tests).
+    pub fn shape_panel_mut(&mut self) -> &mut ShapePanel {
+        &mut self.shape_panel
+    }
+
+    /// The compare view (tests).
+    #[must_use]
+    pub fn compare_panel(&self) -> &ComparePanel {
+        &self.compare_panel
+    }
+
+    /// The compare view, to add entries as its buttons would (tests, screenshots).
+    pub fn compare_panel_mut(&mut self) -> &mut ComparePanel {
+        &mut self.compare_panel
+    }
+
     /// Queues a command, as a menu would (for tests and shortcuts).
     pub fn push_command(&mut self, c: Command) {
         self.commands.push(c);
@@ -312,6 +399,108 @@ impl LeafwindApp {
     #[must_use]
     pub fn frame_ms(&self) -> f64 {
         self.frame_ms
+    }
+
+    // ----- crash recovery and file safety -----
+
+    /// Turns on the autosave into `dir`, `delay` after the last change, and offers to restore an
+    /// autosave an earlier run left there (one that cannot be read is moved aside and reported).
+    #[must_use]
+    pub fn with_autosave(mut self, dir: PathBuf, delay: Duration) -> Self {
+        let a = Autosave::new(dir, delay);
+        match a.find() {
+            Some(Ok(file)) => self.restore_offer = Some(file),
+            Some(Err(e)) => {
+                let kept = a.keep_unreadable().unwrap_or_else(|_| a.path());
+                self.fail(&format!(
+                    "An autosave was found but could not be read ({e}); it is kept as {}",
+                    kept.display()
+                ));
+            }
+            None => {}
+        }
+        self.autosave = Some(a);
+        self
+    }
+
+    /// Whether the restore offer (Restore / Discard) is shown.
+    #[must_use]
+    pub fn restore_offered(&self) -> bool {
+        self.restore_offer.is_some()
+    }
+
+    /// Whether a save waits for "Overwrite" because the file changed on disk.
+    #[must_use]
+    pub fn overwrite_pending(&self) -> bool {
+        self.overwrite_confirm.is_some()
+    }
+
+    /// Whether the autosave file holds the current unsaved edits.
+    #[must_use]
+    pub fn autosave_written(&self) -> bool {
+        self.is_dirty()
+            && self
+                .autosave
+                .as_ref()
+                .is_some_and(|a| a.path().exists() && !self.autosave_pending())
+    }
+
+    /// The autosave file, when the autosave is on.
+    #[must_use]
+    pub fn autosave_path(&self) -> Option<PathBuf> {
+        self.autosave.as_ref().map(Autosave::path)
+    }
+
+    fn autosave_pending(&self) -> bool {
+        self.autosave_due.is_some()
+    }
+
+    /// The autosave step of a frame (not while the restore offer waits for an answer).
+    fn autosave_step(&mut self, ctx: &egui::Context) {
+        if self.restore_offer.is_some() {
+            return;
+        }
+        let dirty = self.is_dirty();
+        let Some(a) = &mut self.autosave else {
+            return;
+        };
+        match a.tick(&self.doc, dirty, self.path.as_deref(), Instant::now()) {
+            Ok(due) => {
+                self.autosave_due = due;
+                if let Some(wait) = due {
+                    ctx.request_repaint_after(wait);
+                }
+            }
+            Err(e) => {
+                self.autosave_due = None;
+                self.fail(&e);
+            }
+        }
+    }
+
+    /// Restores the offered autosave: its edits become the document, unsaved, for the file they
+    /// belonged to.
+    fn restore_autosave(&mut self, file: AutosaveFile) {
+        let mut note = format!("Restored the unsaved edits autosaved {}.", file.age_text());
+        let loaded = file.source.as_deref().map(ScenarioDocument::load_stamped);
+        match loaded {
+            Some(Ok(l)) => {
+                self.saved = l.doc;
+                self.stamp = Some(l.stamp);
+            }
+            Some(Err(e)) => {
+                self.saved = ScenarioDocument::default();
+                self.stamp = None;
+                note.push_str(&format!(" Their file could not be read: {e}"));
+            }
+            None => {
+                self.saved = ScenarioDocument::default();
+                self.stamp = None;
+            }
+        }
+        self.path = file.source;
+        self.doc = file.document;
+        self.note(&note);
     }
 
     // ----- results -----
@@ -342,6 +531,8 @@ impl LeafwindApp {
         self.map.poll(ctx);
         self.map_preview.poll(ctx);
         self.boundary.poll(ctx);
+        self.canopy.poll(ctx);
+        self.fans.poll(ctx);
         if self.input_error.is_none() {
             self.sweep.submit(SweepInput::of(&self.doc), ctx);
             let map = MapInput::of(&self.doc);
@@ -350,6 +541,12 @@ impl LeafwindApp {
                 .submit(map.clone().with_cells(super::compute::PREVIEW_CELLS), ctx);
             self.map.submit(map, ctx);
             self.boundary.submit(self.doc.case, ctx);
+            if let Some(c) = CanopyInput::of(&self.doc, self.path.as_deref()) {
+                self.canopy.submit(c, ctx);
+            }
+            if let Some(f) = FansInput::of(&self.doc, self.path.as_deref()) {
+                self.fans.submit(f, ctx);
+            }
         }
     }
 
@@ -380,7 +577,11 @@ impl LeafwindApp {
         self.refresh_leaf();
         self.refresh_jobs(&ctx);
         self.handle_close_request(&ctx);
-        if self.confirm.is_none() && self.path_prompt.is_none() {
+        if self.confirm.is_none()
+            && self.path_prompt.is_none()
+            && self.restore_offer.is_none()
+            && self.overwrite_confirm.is_none()
+        {
             for c in Command::with_shortcuts() {
                 if let Some(s) = c.shortcut()
                     && ctx.input_mut(|i| i.consume_shortcut(&s))
@@ -402,6 +603,7 @@ impl LeafwindApp {
         // Edits of this frame are solved at once, so the result never lags a frame.
         self.refresh_leaf();
         self.refresh_jobs(&ctx);
+        self.autosave_step(&ctx);
         let title = self.title();
         if title != self.shown_title {
             ctx.send_viewport_cmd(ViewportCommand::Title(title.clone()));
@@ -435,21 +637,30 @@ impl LeafwindApp {
             });
         self.prefs.layout.inputs_width = r.response.rect.width();
         let stale = self.input_error.clone();
-        let r = egui::Panel::right("result")
-            .resizable(true)
-            .default_size(result_w)
-            .size_range(320.0..=600.0)
-            .show(ui, |ui| {
-                ui.add_space(4.0);
-                ui.heading("Leaf result");
-                if let Some(c) =
-                    self.result_panel
-                        .ui(ui, self.result.as_ref(), stale.as_deref(), units)
-                {
-                    self.commands.push(c);
-                }
-            });
-        self.prefs.layout.result_width = r.response.rect.width();
+        // The canopy and fans tabs show their own inputs, answers and plots and need the width:
+        // the single-leaf result steps aside there.
+        let own_results = match self.prefs.layout.tab {
+            PlotTab::Canopy => self.doc.canopy.is_some(),
+            PlotTab::Fans => self.doc.fans.is_some(),
+            _ => false,
+        };
+        if !own_results {
+            let r = egui::Panel::right("result")
+                .resizable(true)
+                .default_size(result_w)
+                .size_range(320.0..=600.0)
+                .show(ui, |ui| {
+                    ui.add_space(4.0);
+                    ui.heading("Leaf result");
+                    if let Some(c) =
+                        self.result_panel
+                            .ui(ui, self.result.as_ref(), stale.as_deref(), units)
+                    {
+                        self.commands.push(c);
+                    }
+                });
+            self.prefs.layout.result_width = r.response.rect.width();
+        }
         egui::CentralPanel::default().show(ui, |ui| self.central(ui));
     }
 
@@ -571,8 +782,16 @@ impl LeafwindApp {
                     });
                 });
         }
-        ui.horizontal(|ui| {
-            for tab in [PlotTab::Sweep, PlotTab::Map, PlotTab::BoundaryLayer] {
+        ui.horizontal_wrapped(|ui| {
+            for tab in [
+                PlotTab::Sweep,
+                PlotTab::Map,
+                PlotTab::BoundaryLayer,
+                PlotTab::Canopy,
+                PlotTab::Fans,
+                PlotTab::Shape,
+                PlotTab::Compare,
+            ] {
                 ui.selectable_value(
                     &mut self.prefs.layout.tab,
                     tab,
@@ -604,6 +823,31 @@ impl LeafwindApp {
                 let status = Self::job_status(&self.boundary, stale);
                 self.boundary_panel
                     .ui(ui, self.boundary.result(), status, units)
+            }
+            PlotTab::Canopy => {
+                let view = CanopyView {
+                    run: self.canopy.result(),
+                    busy: self.canopy.is_busy(),
+                    error: self.canopy.error(),
+                    stale,
+                    dir: self.path.as_deref().and_then(Path::parent),
+                };
+                self.canopy_panel.ui(ui, &self.doc, &view, units)
+            }
+            PlotTab::Fans => {
+                let view = FansView {
+                    run: self.fans.result(),
+                    busy: self.fans.is_busy(),
+                    error: self.fans.error(),
+                    stale,
+                    dir: self.path.as_deref().and_then(Path::parent),
+                };
+                self.fans_panel.ui(ui, &self.doc, &view, units)
+            }
+            PlotTab::Shape => self.shape_panel.ui(ui, &self.doc, self.dialogs, units),
+            PlotTab::Compare => {
+                self.compare_panel.ui(ui, &self.doc, self.dialogs, units);
+                Vec::new()
             }
         };
         self.commands.extend(cmds);
@@ -682,8 +926,95 @@ impl LeafwindApp {
                 None => {}
             }
         }
+        self.draw_file_safety_modals(ctx);
         if self.about_panel.open {
             self.about_panel.window(ctx);
+        }
+    }
+
+    /// The restore offer (Restore / Discard) and the changed-on-disk question (Overwrite /
+    /// Cancel).
+    fn draw_file_safety_modals(&mut self, ctx: &egui::Context) {
+        if let Some(file) = &self.restore_offer {
+            let mut choice = None;
+            Modal::new(egui::Id::unique("restore-autosave")).show(ctx, |ui| {
+                ui.set_max_width(420.0);
+                ui.heading("Restore unsaved work?");
+                let of = file.source.as_ref().map_or_else(
+                    || "a scenario not saved to a file".to_owned(),
+                    |p| p.display().to_string(),
+                );
+                ui.label(format!(
+                    "Leafwind was closed before the edits to “{}” ({of}) were saved. They were \
+                     autosaved {}.",
+                    file.document.title,
+                    file.age_text()
+                ));
+                ui.add_space(6.0);
+                ui.horizontal(|ui| {
+                    if ui
+                        .button("Restore")
+                        .on_hover_text("Open the autosaved edits (still unsaved).")
+                        .clicked()
+                    {
+                        choice = Some(true);
+                    }
+                    if ui
+                        .button("Discard")
+                        .on_hover_text("Delete the autosave and keep the scenario shown.")
+                        .clicked()
+                    {
+                        choice = Some(false);
+                    }
+                });
+            });
+            match choice {
+                Some(true) => {
+                    if let Some(file) = self.restore_offer.take() {
+                        self.restore_autosave(file);
+                    }
+                }
+                Some(false) => {
+                    self.restore_offer = None;
+                    if let Some(a) = &mut self.autosave {
+                        a.remove();
+                    }
+                    self.note("Discarded the autosaved edits.");
+                }
+                None => {}
+            }
+        }
+        if let Some(p) = self.overwrite_confirm.clone() {
+            let mut choice = None;
+            Modal::new(egui::Id::unique("overwrite-changed")).show(ctx, |ui| {
+                ui.set_max_width(420.0);
+                ui.heading("The file changed on disk");
+                ui.label(format!(
+                    "{} was changed by another program since Leafwind opened or saved it. \
+                     Saving will replace those changes with this scenario.",
+                    p.display()
+                ));
+                ui.add_space(6.0);
+                ui.horizontal(|ui| {
+                    if ui.button("Overwrite").clicked() {
+                        choice = Some(true);
+                    }
+                    if ui.button("Cancel").clicked() {
+                        choice = Some(false);
+                    }
+                });
+            });
+            match choice {
+                Some(true) => {
+                    self.overwrite_confirm = None;
+                    self.write_to(&p);
+                }
+                Some(false) => {
+                    self.overwrite_confirm = None;
+                    self.note("Not saved: the file on disk was kept.");
+                }
+                None => {}
+            }
         }
     }
 
@@ -715,6 +1046,7 @@ impl LeafwindApp {
                 self.doc = ScenarioDocument::default();
                 self.saved = self.doc.clone();
                 self.path = None;
+                self.stamp = None;
                 self.note("New scenario from the default inputs.");
             }
             Command::Open => {
@@ -731,6 +1063,7 @@ impl LeafwindApp {
                             self.doc = d;
                             self.saved = self.doc.clone();
                             self.path = None;
+                            self.stamp = None;
                             self.note(&format!("Opened the example {name}."));
                         }
                         Err(e) => self.fail(&format!("The example {name} could not be read: {e}")),
@@ -830,14 +1163,24 @@ impl LeafwindApp {
 
     /// Opens a scenario file; on failure the document stays as it was and the error is shown.
     fn open_path(&mut self, p: &Path) {
-        match ScenarioDocument::load(p) {
-            Ok(mut d) => {
+        match ScenarioDocument::load_stamped(p) {
+            Ok(loaded) => {
+                let mut d = loaded.doc;
                 d.apply_altitude();
                 self.doc = d;
                 self.saved = self.doc.clone();
                 self.path = Some(p.to_path_buf());
+                self.stamp = Some(loaded.stamp);
                 self.prefs.add_recent(p.to_path_buf());
-                self.note(&format!("Opened {}.", p.display()));
+                match loaded.migrated_from {
+                    Some(v) => self.note(&format!(
+                        "Opened {} (format version {v}, updated to version {}; saving writes the \
+                         new version).",
+                        p.display(),
+                        super::document::DOCUMENT_VERSION
+                    )),
+                    None => self.note(&format!("Opened {}.", p.display())),
+                }
             }
             Err(e) => self.fail(&format!(
                 "Could not open the scenario: {e} ({})",
@@ -846,14 +1189,34 @@ impl LeafwindApp {
         }
     }
 
+    /// Saves to `p`, asking first when `p` is the document's file and another program changed
+    /// it since it was opened or saved.
     fn save_to(&mut self, p: &Path) {
-        match self.doc.save(p) {
-            Ok(()) => {
+        let ours = self.path.as_deref() == Some(p);
+        if ours
+            && let Some(before) = self.stamp
+            && FileStamp::read(p).is_some_and(|now| now.differs_from(&before))
+        {
+            self.overwrite_confirm = Some(p.to_path_buf());
+            return;
+        }
+        self.write_to(p);
+    }
+
+    /// Writes the document to `p` (atomically) and removes the autosave.
+    fn write_to(&mut self, p: &Path) {
+        match self.doc.save_stamped(p) {
+            Ok(stamp) => {
                 self.saved = self.doc.clone();
                 self.path = Some(p.to_path_buf());
+                self.stamp = Some(stamp);
                 self.prefs.add_recent(p.to_path_buf());
+                if let Some(a) = &mut self.autosave {
+                    a.remove();
+                }
                 self.note(&format!("Saved {}.", p.display()));
             }
+            // The file on disk is as it was (atomic write); the edits stay, unsaved.
             Err(e) => self.fail(&format!("{e:#}")),
         }
     }
@@ -887,7 +1250,10 @@ impl LeafwindApp {
     // ----- screenshot -----
 
     fn screenshot_step(&mut self, ctx: &egui::Context) {
-        let ready = self.result.is_some() && self.results_current();
+        let ready = self.result.is_some()
+            && self.results_current()
+            && (self.doc.canopy.is_none() || self.canopy.is_current())
+            && (self.doc.fans.is_none() || self.fans.is_current());
         let Some(s) = &mut self.screenshot else {
             return;
         };
@@ -984,5 +1350,15 @@ impl eframe::App for LeafwindApp {
 
     fn persist_egui_memory(&self) -> bool {
         self.screenshot.is_none()
+    }
+
+    /// A clean exit: the edits were saved or their discarding confirmed, so the autosave goes.
+    fn on_exit(&mut self) {
+        let clean = !self.is_dirty() || self.allow_close;
+        if let Some(a) = &mut self.autosave
+            && clean
+        {
+            a.remove();
+        }
     }
 }

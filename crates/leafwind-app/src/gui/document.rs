@@ -2,8 +2,10 @@
 //!
 //! Only inputs live here, never results. The file carries a `version`; later sections (canopy,
 //! greenhouse, design day) will be added as `#[serde(default)] Option<…>` fields so that older files
-//! still load. Unknown fields are refused (a misspelt field name is an error with its line and
-//! column, not silently dropped).
+//! still load. Unknown fields are refused at every depth (a misspelt field name is an error with
+//! its line and column, not silently dropped); older format versions are migrated step by step
+//! ([`MIGRATIONS`]); every value is range-checked on load with the document path of its field
+//! ([`super::file_safety::validate_document`]); saves are atomic.
 
 use std::fmt;
 use std::path::Path;
@@ -20,6 +22,9 @@ use serde::{Deserialize, Serialize};
 
 /// The file format version this build writes and the newest it reads.
 pub const DOCUMENT_VERSION: u32 = 1;
+
+/// Largest scenario file read \[bytes\] (shipped scenarios are under 10 kB).
+pub const MAX_FILE_BYTES: u64 = 16 * 1024 * 1024;
 
 /// Most extra leaf sizes in a sweep.
 pub const MAX_EXTRA_SIZES: usize = 6;
@@ -118,7 +123,9 @@ pub const MARGIN_DEFAULT_K: f64 = 2.0;
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct ScenarioDocument {
-    /// File format version ([`DOCUMENT_VERSION`]).
+    /// File format version ([`DOCUMENT_VERSION`]); a file without one is version 0 and is
+    /// migrated on load (see [`MIGRATIONS`]).
+    #[serde(default)]
     pub version: u32,
     /// Short title shown in the title bar.
     pub title: String,
@@ -149,6 +156,9 @@ pub struct ScenarioDocument {
     /// The circulation-fan section, if any.
     #[serde(default)]
     pub fans: Option<crate::fans_scenario::FansSection>,
+    /// The leaf shape the leaf size was taken from, if any.
+    #[serde(default)]
+    pub shape: Option<crate::shape_scenario::ShapeSection>,
 }
 
 impl Default for ScenarioDocument {
@@ -166,6 +176,7 @@ impl Default for ScenarioDocument {
             map: MapSettings::default(),
             canopy: None,
             fans: None,
+            shape: None,
         }
     }
 }
@@ -184,6 +195,13 @@ pub enum LoadError {
     },
     /// A file from a newer Leafwind.
     Version(u32),
+    /// A value out of its valid range (or not a finite number).
+    Invalid {
+        /// Document path of the field, e.g. `case.air.speed_m_s`.
+        path: String,
+        /// The quantity, the value and the valid range.
+        message: String,
+    },
     /// The file could not be read.
     Io(String),
 }
@@ -199,6 +217,7 @@ impl fmt::Display for LoadError {
                 "the file is format version {v}; this Leafwind reads up to version {DOCUMENT_VERSION}"
             ),
             LoadError::Io(e) => write!(f, "{e}"),
+            LoadError::Invalid { path, message } => write!(f, "{path}: {message}"),
         }
     }
 }
@@ -206,12 +225,39 @@ impl fmt::Display for LoadError {
 impl std::error::Error for LoadError {}
 
 impl ScenarioDocument {
-    /// Parses a scenario from RON text.
+    /// Parses a scenario from RON text, migrates an older format version and range-checks every
+    /// value.
     ///
     /// # Errors
-    /// [`LoadError::Parse`] with line and column, or [`LoadError::Version`].
+    /// [`LoadError::Parse`] with line and column (a misspelt or unknown field is named, at every
+    /// depth), [`LoadError::Version`], or [`LoadError::Invalid`] naming the field, its value and
+    /// the valid range.
     pub fn from_ron(text: &str) -> Result<Self, LoadError> {
-        let doc: Self = ron::from_str(text).map_err(|e| LoadError::Parse {
+        Self::from_ron_migrated(text).map(|(d, _)| d)
+    }
+
+    /// As [`ScenarioDocument::from_ron`], also returning the version it was migrated from
+    /// (`None` when the file was already current).
+    ///
+    /// # Errors
+    /// As [`ScenarioDocument::from_ron`].
+    pub fn from_ron_migrated(text: &str) -> Result<(Self, Option<u32>), LoadError> {
+        let (doc, from) = Self::parse_unchecked(text)?;
+        super::file_safety::validate_document(&doc).map_err(|e| LoadError::Invalid {
+            path: e.path,
+            message: e.message,
+        })?;
+        Ok((doc, from))
+    }
+
+    /// Parses and migrates without the range check (the autosave of work in progress, which may
+    /// hold a value being typed; the window shows such values as invalid inputs).
+    ///
+    /// # Errors
+    /// [`LoadError::Parse`] or [`LoadError::Version`].
+    pub fn parse_unchecked(text: &str) -> Result<(Self, Option<u32>), LoadError> {
+        let text = super::file_safety::strip_bom(text);
+        let mut doc: Self = ron::from_str(text).map_err(|e| LoadError::Parse {
             line: e.span.start.line,
             col: e.span.start.col,
             message: e.code.to_string(),
@@ -219,7 +265,8 @@ impl ScenarioDocument {
         if doc.version > DOCUMENT_VERSION {
             return Err(LoadError::Version(doc.version));
         }
-        Ok(doc)
+        let from = migrate(&mut doc);
+        Ok((doc, from))
     }
 
     /// Reads a scenario file.
@@ -227,9 +274,41 @@ impl ScenarioDocument {
     /// # Errors
     /// As [`ScenarioDocument::from_ron`], or the read error.
     pub fn load(path: &Path) -> Result<Self, LoadError> {
-        let text = std::fs::read_to_string(path)
+        Self::load_stamped(path).map(|l| l.doc)
+    }
+
+    /// Reads a scenario file, with the stamp of what was on disk (to notice later changes by
+    /// another program) and the version it was migrated from.
+    ///
+    /// # Errors
+    /// As [`ScenarioDocument::from_ron`], or the read error.
+    pub fn load_stamped(path: &Path) -> Result<Loaded, LoadError> {
+        // A scenario is a few kilobytes: anything far larger is not one (and is not read whole).
+        if let Ok(m) = std::fs::metadata(path)
+            && m.len() > MAX_FILE_BYTES
+        {
+            return Err(LoadError::Io(format!(
+                "{} is {} bytes, larger than any scenario (at most {MAX_FILE_BYTES})",
+                path.display(),
+                m.len()
+            )));
+        }
+        let bytes = std::fs::read(path)
             .map_err(|e| LoadError::Io(format!("could not read {}: {e}", path.display())))?;
-        Self::from_ron(&text)
+        let stamp = super::file_safety::FileStamp::of(path, &bytes);
+        let text = String::from_utf8(bytes).map_err(|e| {
+            LoadError::Io(format!(
+                "{} is not UTF-8 text (invalid byte at offset {})",
+                path.display(),
+                e.utf8_error().valid_up_to()
+            ))
+        })?;
+        let (doc, migrated_from) = Self::from_ron_migrated(&text)?;
+        Ok(Loaded {
+            doc,
+            stamp,
+            migrated_from,
+        })
     }
 
     /// The scenario as pretty RON text.
@@ -243,14 +322,23 @@ impl ScenarioDocument {
         Ok(ron::ser::to_string_pretty(self, cfg)?)
     }
 
-    /// Writes the scenario to `path`.
+    /// Writes the scenario to `path` atomically (a temporary file beside it, synced, then
+    /// renamed over it: a crash or a full disk leaves the old file whole).
     ///
     /// # Errors
     /// Write failure, with the path.
     pub fn save(&self, path: &Path) -> anyhow::Result<()> {
-        use anyhow::Context as _;
+        self.save_stamped(path).map(|_| ())
+    }
+
+    /// As [`ScenarioDocument::save`], returning the stamp of what is now on disk.
+    ///
+    /// # Errors
+    /// Write failure, with the path.
+    pub fn save_stamped(&self, path: &Path) -> anyhow::Result<super::file_safety::FileStamp> {
         let text = self.to_ron()?;
-        std::fs::write(path, text).with_context(|| format!("could not write {}", path.display()))
+        super::file_safety::write_atomic(path, text.as_bytes())?;
+        Ok(super::file_safety::FileStamp::of(path, text.as_bytes()))
     }
 
     /// Every leaf size of the sweep: the current one first, then the extra ones \[m\] (valid only).
@@ -312,6 +400,59 @@ impl ScenarioDocument {
             (HumidityKind::Deficit, None) => Humidity::DeficitKpa(1.0),
         };
     }
+}
+
+/// A scenario read from a file.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Loaded {
+    /// The document (migrated and range-checked).
+    pub doc: ScenarioDocument,
+    /// What was on disk when it was read.
+    pub stamp: super::file_safety::FileStamp,
+    /// The format version it was migrated from, if it was older.
+    pub migrated_from: Option<u32>,
+}
+
+/// One step of the format migration: it turns a document of version `from` into version
+/// `from + 1`.
+#[derive(Debug, Clone, Copy)]
+pub struct Migration {
+    /// The version it starts from.
+    pub from: u32,
+    /// What changed, for the developers' record.
+    pub change: &'static str,
+    /// The step.
+    pub apply: fn(&mut ScenarioDocument),
+}
+
+/// The migration steps, oldest first; each takes `from` to `from + 1`, and together they reach
+/// [`DOCUMENT_VERSION`].
+///
+/// Version 0 is a file without a `version` field (the pre-release drafts of the format); its
+/// fields are those of version 1, so the step only sets the number. A later change that renames
+/// or restructures a field adds its step here, with the old field kept as
+/// `#[serde(default, skip_serializing)]` on the document until the step has moved it.
+pub const MIGRATIONS: [Migration; 1] = [Migration {
+    from: 0,
+    change: "the format version is recorded in the file",
+    apply: |_| {},
+}];
+
+/// Brings `doc` to [`DOCUMENT_VERSION`], step by step; returns the version it started from when
+/// it was older.
+pub fn migrate(doc: &mut ScenarioDocument) -> Option<u32> {
+    let start = doc.version;
+    if start >= DOCUMENT_VERSION {
+        return None;
+    }
+    while doc.version < DOCUMENT_VERSION {
+        // No step (cannot happen with a complete table): the fields are taken as they are.
+        if let Some(m) = MIGRATIONS.iter().find(|m| m.from == doc.version) {
+            (m.apply)(doc);
+        }
+        doc.version += 1;
+    }
+    Some(start)
 }
 
 /// The three ways of giving humidity.

@@ -22,6 +22,14 @@ pub enum PlotTab {
     Map,
     /// Velocity profiles, thickness and wall shear along the leaf.
     BoundaryLayer,
+    /// The whole crop: canopy profile, sizing answers, design day.
+    Canopy,
+    /// Circulation fans, their air speed along the house, and the night dew check.
+    Fans,
+    /// The leaf outline, its effective dimension and how it changes with the wind direction.
+    Shape,
+    /// Several leaves or scenarios side by side.
+    Compare,
 }
 
 impl PlotTab {
@@ -32,6 +40,10 @@ impl PlotTab {
             Self::Sweep => "Sweep over air speed",
             Self::Map => "Wind × leaf size map",
             Self::BoundaryLayer => "Boundary layer",
+            Self::Canopy => "Canopy & day",
+            Self::Fans => "Fans & night",
+            Self::Shape => "Leaf shape",
+            Self::Compare => "Compare",
         }
     }
 }

@@ -476,6 +476,7 @@ fn light_group(ui: &mut Ui, d: &mut ScenarioDocument, units: UnitSystem) {
 fn leaf_group(ui: &mut Ui, d: &mut ScenarioDocument, units: UnitSystem) {
     group(ui, "Leaf", |ui| {
         let l = &mut d.case.leaf;
+        let size_before = l.dimension_m;
         number_field(
             ui,
             &Field {
@@ -491,6 +492,11 @@ fn leaf_group(ui: &mut Ui, d: &mut ScenarioDocument, units: UnitSystem) {
             units,
             |_| None,
         );
+        // A size typed here no longer belongs to the outline measured on the Leaf shape tab: drop
+        // its free-convection length (A/P) so the leaf is again taken as square (d/4).
+        if l.dimension_m != size_before {
+            l.free_convection_length_m = None;
+        }
         number_field(
             ui,
             &Field {

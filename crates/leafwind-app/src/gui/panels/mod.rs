@@ -2,7 +2,12 @@
 
 pub mod about;
 pub mod boundary;
+pub mod canopy;
+pub mod compare;
+pub mod fans;
+pub mod file_prompt;
 pub mod inputs;
 pub mod map;
 pub mod result;
+pub mod shape;
 pub mod sweep;

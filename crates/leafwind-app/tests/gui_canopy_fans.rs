@@ -1,0 +1,334 @@
+//! Window tests of the "Canopy & day" and "Fans & night" tabs: the glasshouse example shows the
+//! hottest leaf and every answer without "NaN"; "Add … section" adds a section as an unsaved edit;
+//! an input changed by its label changes the result; an invalid input shows a field error in words
+//! and the last valid result stays; the plots' data export as CSV.
+
+mod gui_support;
+
+use egui_kittest::kittest::{NodeT as _, Queryable};
+use gui_support::{harness, has_text, non_finite_texts, set_slider};
+use leafwind_app::gui::commands::Command;
+use leafwind_app::gui::document::{ScenarioDocument, first_example};
+use leafwind_app::gui::prefs::PlotTab;
+
+/// The glasshouse example (the first shipped example) has both sections.
+fn glasshouse() -> ScenarioDocument {
+    let d = first_example();
+    assert!(d.canopy.is_some() && d.fans.is_some());
+    d
+}
+
+fn hottest_c(h: &egui_kittest::Harness<'_, leafwind_app::gui::LeafwindApp>) -> f64 {
+    h.state()
+        .canopy_run()
+        .expect("a canopy result")
+        .canopy
+        .hottest
+        .leaf_temp_c
+}
+
+#[test]
+fn canopy_tab_shows_the_hottest_leaf_and_the_answers_without_nan() {
+    let mut h = harness(glasshouse());
+    h.state_mut().set_tab(PlotTab::Canopy);
+    h.run();
+    assert!(h.state().canopy_run().is_some());
+    assert!(has_text(&h, "Hottest leaf:"));
+    assert!(has_text(&h, "Least canopy-top air speed"));
+    assert!(has_text(&h, "Least shade"));
+    assert!(has_text(&h, "Hours over the limit"));
+    assert!(has_text(&h, "Degree-hours over the limit"));
+    assert!(
+        non_finite_texts(&h).is_empty(),
+        "{:?}",
+        non_finite_texts(&h)
+    );
+    // Imperial: temperatures in °F and the air speed also in ft/min.
+    h.state_mut().push_command(Command::ToggleUnits);
+    h.run();
+    assert!(has_text(&h, "ft/min"));
+    assert!(has_text(&h, "°F"));
+    assert!(
+        non_finite_texts(&h).is_empty(),
+        "{:?}",
+        non_finite_texts(&h)
+    );
+}
+
+#[test]
+fn fans_tab_shows_the_estimate_the_answers_and_the_caution_without_nan() {
+    let mut h = harness(glasshouse());
+    h.state_mut().set_tab(PlotTab::Fans);
+    h.run();
+    assert!(h.state().fans_run().is_some());
+    assert!(has_text(&h, "Slowest canopy-top air speed"));
+    assert!(has_text(&h, "verify with an anemometer"));
+    assert!(has_text(&h, "Rules of thumb (common practice"));
+    assert!(has_text(&h, "For a target of"));
+    assert!(has_text(&h, "Where more air stops helping"));
+    assert!(has_text(&h, "Fan power"));
+    assert!(has_text(&h, "leaf − dew point"));
+    assert!(has_text(&h, "Least air speed against dew"));
+    assert!(has_text(&h, "licensed electricians"));
+    assert!(
+        non_finite_texts(&h).is_empty(),
+        "{:?}",
+        non_finite_texts(&h)
+    );
+    h.state_mut().push_command(Command::ToggleUnits);
+    h.run();
+    assert!(has_text(&h, "cfm"));
+    assert!(has_text(&h, "ft/min"));
+    assert!(
+        non_finite_texts(&h).is_empty(),
+        "{:?}",
+        non_finite_texts(&h)
+    );
+}
+
+#[test]
+fn add_a_canopy_section_marks_the_document_unsaved_and_solves_it() {
+    let mut h = harness(ScenarioDocument::default());
+    h.state_mut().set_tab(PlotTab::Canopy);
+    h.run();
+    assert!(!h.state().is_dirty());
+    h.get_by_label("Add a canopy (crop) section").click();
+    h.run();
+    assert!(h.state().document().canopy.is_some());
+    assert!(h.state().is_dirty());
+    assert!(h.state().title().starts_with('*'));
+    assert!(h.state().canopy_run().is_some());
+    assert!(has_text(&h, "Hottest leaf:"));
+    assert!(
+        non_finite_texts(&h).is_empty(),
+        "{:?}",
+        non_finite_texts(&h)
+    );
+}
+
+#[test]
+fn add_a_fans_section_marks_the_document_unsaved_and_solves_it() {
+    let mut h = harness(ScenarioDocument::default());
+    h.state_mut().set_tab(PlotTab::Fans);
+    h.run();
+    h.get_by_label("Add a fans section").click();
+    h.run();
+    assert!(h.state().document().fans.is_some());
+    assert!(h.state().is_dirty());
+    assert!(h.state().fans_run().is_some());
+    assert!(has_text(&h, "Slowest canopy-top air speed"));
+    assert!(
+        non_finite_texts(&h).is_empty(),
+        "{:?}",
+        non_finite_texts(&h)
+    );
+}
+
+#[test]
+fn shade_fraction_by_its_label_cools_the_hottest_leaf() {
+    let mut h = harness(glasshouse());
+    h.state_mut().set_tab(PlotTab::Canopy);
+    h.run();
+    let before = hottest_c(&h);
+    set_slider(&mut h, "Shade fraction", 60.0);
+    let g = h
+        .state()
+        .document()
+        .canopy
+        .as_ref()
+        .unwrap()
+        .greenhouse
+        .unwrap();
+    assert!((g.shade_fraction - 0.6).abs() < 1e-9);
+    let after = hottest_c(&h);
+    // Holding back 60 % of the light cools the sunlit leaves (common practice, no source: less
+    // absorbed radiation, same air).
+    assert!(after < before - 0.3, "{before} → {after}");
+    assert!(h.state().is_dirty());
+}
+
+#[test]
+fn fewer_fans_by_their_label_slow_the_canopy_air() {
+    let mut h = harness(glasshouse());
+    h.state_mut().set_tab(PlotTab::Fans);
+    h.run();
+    let before = h.state().fans_run().unwrap().energy.power_w;
+    set_slider(&mut h, "Fans per row", 2.0);
+    assert_eq!(
+        h.state()
+            .document()
+            .fans
+            .as_ref()
+            .unwrap()
+            .layout
+            .fans_per_row,
+        2
+    );
+    let after = h.state().fans_run().unwrap().energy.power_w;
+    // Half the fans, half the power (P = n Q₀ / efficacy).
+    assert!(
+        (after - 0.5 * before).abs() < 1e-6 * before,
+        "{before} → {after}"
+    );
+}
+
+#[test]
+fn an_invalid_canopy_input_shows_its_error_and_keeps_the_last_result() {
+    let mut h = harness(glasshouse());
+    h.state_mut().set_tab(PlotTab::Canopy);
+    h.run();
+    let before = hottest_c(&h);
+    set_slider(&mut h, "Leaf area index", 20.0);
+    assert!(has_text(&h, "outside the valid range"), "no field error");
+    assert!(has_text(&h, "Could not update"));
+    assert_eq!(hottest_c(&h), before);
+    assert!(has_text(&h, "Hottest leaf:"));
+    assert!(
+        non_finite_texts(&h).is_empty(),
+        "{:?}",
+        non_finite_texts(&h)
+    );
+}
+
+#[test]
+fn an_invalid_fan_input_shows_its_error_and_keeps_the_last_result() {
+    let mut h = harness(glasshouse());
+    h.state_mut().set_tab(PlotTab::Fans);
+    h.run();
+    let before = h.state().fans_run().unwrap().energy.power_w;
+    set_slider(&mut h, "Mounting height", 50.0);
+    assert!(has_text(&h, "outside the valid range"), "no field error");
+    assert!(has_text(&h, "Could not update"));
+    assert_eq!(h.state().fans_run().unwrap().energy.power_w, before);
+    assert!(has_text(&h, "Slowest canopy-top air speed"));
+    assert!(
+        non_finite_texts(&h).is_empty(),
+        "{:?}",
+        non_finite_texts(&h)
+    );
+}
+
+/// Exports a plot's data through its "Export … CSV…" button with the suggested path (beside the
+/// scenario file) and returns the text written.
+fn export_beside_the_scenario(tab: PlotTab, button: &str, file: &str) -> String {
+    let dir = std::env::temp_dir().join(format!(
+        "leafwind-canopy-fans-{}-{}",
+        std::process::id(),
+        file.replace('.', "-")
+    ));
+    std::fs::create_dir_all(&dir).unwrap();
+    let scenario = dir.join("glasshouse.ron");
+    glasshouse().save(&scenario).unwrap();
+    let mut h = harness(ScenarioDocument::default());
+    h.state_mut().push_command(Command::OpenPath(scenario));
+    h.run();
+    h.state_mut().set_tab(tab);
+    h.run();
+    h.get_by_label(button).click();
+    h.run();
+    h.get_by_label("Export").click();
+    h.run();
+    let written = dir.join(file);
+    assert!(
+        has_text(&h, "Exported"),
+        "no export message: {:?}",
+        h.query_all_by_label_contains("xport")
+            .map(|n| format!("{:?}", n.accesskit_node().label()))
+            .collect::<Vec<_>>()
+    );
+    let text = std::fs::read_to_string(&written).unwrap();
+    std::fs::remove_dir_all(&dir).ok();
+    assert!(!text.contains("NaN") && !text.contains("inf"), "{text}");
+    text
+}
+
+#[test]
+fn canopy_profile_and_day_export_as_csv_with_units() {
+    let t = export_beside_the_scenario(
+        PlotTab::Canopy,
+        "Export profile CSV…",
+        "leafwind-canopy-profile.csv",
+    );
+    assert!(
+        t.lines().next().unwrap().contains("sunlit leaf [°C]"),
+        "{t}"
+    );
+    // One row per layer (20 in the example) after the header.
+    assert_eq!(t.lines().count(), 21);
+    let t = export_beside_the_scenario(
+        PlotTab::Canopy,
+        "Export day CSV…",
+        "leafwind-canopy-day.csv",
+    );
+    assert!(
+        t.lines().next().unwrap().contains("hottest leaf [°C]"),
+        "{t}"
+    );
+    assert_eq!(t.lines().count(), 25);
+}
+
+#[test]
+fn fan_plan_and_air_speed_export_as_csv_with_units() {
+    let t = export_beside_the_scenario(PlotTab::Fans, "Export plan CSV…", "leafwind-fans-plan.csv");
+    // Eight fans in the example.
+    assert_eq!(t.lines().count(), 9, "{t}");
+    let t = export_beside_the_scenario(
+        PlotTab::Fans,
+        "Export air speed CSV…",
+        "leafwind-fans-air-speed.csv",
+    );
+    assert!(
+        t.lines()
+            .next()
+            .unwrap()
+            .contains("canopy top typical [m/s]"),
+        "{t}"
+    );
+}
+
+#[test]
+fn fan_airflow_is_typed_in_cfm_when_imperial() {
+    let mut h = harness(glasshouse());
+    h.state_mut().set_tab(PlotTab::Fans);
+    h.state_mut().push_command(Command::ToggleUnits);
+    h.run();
+    assert!(has_text(&h, "cfm"));
+    set_slider(&mut h, "Fan airflow rating", 2000.0);
+    let q = h
+        .state()
+        .document()
+        .fans
+        .as_ref()
+        .unwrap()
+        .layout
+        .fan
+        .airflow_m3_s;
+    // 1 cfm = 0.3048³/60 m³/s exactly (international foot).
+    let expected = 2000.0 * 0.3048_f64.powi(3) / 60.0;
+    assert!((q - expected).abs() < 1e-9, "{q} vs {expected}");
+    assert!(
+        non_finite_texts(&h).is_empty(),
+        "{:?}",
+        non_finite_texts(&h)
+    );
+}
+
+#[test]
+fn the_open_field_example_canopy_has_no_shade_answer_and_says_why() {
+    let (_, text) = leafwind_app::gui::document::EXAMPLES
+        .iter()
+        .find(|(name, _)| *name == "open_field_hot_wind.ron")
+        .expect("the open-field example");
+    let doc = ScenarioDocument::from_ron(text).unwrap();
+    assert!(doc.canopy.as_ref().is_some_and(|c| c.greenhouse.is_none()));
+    let mut h = harness(doc);
+    h.state_mut().set_tab(PlotTab::Canopy);
+    h.run();
+    assert!(has_text(&h, "shade sizing needs a greenhouse"));
+    assert!(has_text(&h, "Hottest leaf:"));
+    assert!(
+        non_finite_texts(&h).is_empty(),
+        "{:?}",
+        non_finite_texts(&h)
+    );
+}

@@ -38,6 +38,10 @@ fn canopy_tab_shows_the_hottest_leaf_and_the_answers_without_nan() {
     assert!(has_text(&h, "Least shade"));
     assert!(has_text(&h, "Hours over the limit"));
     assert!(has_text(&h, "Degree-hours over the limit"));
+    // Under cover with a design day: the dew hours and the options compared, the coolest marked.
+    assert!(has_text(&h, "Night dew over the design day"));
+    assert!(has_text(&h, "Cooling and shading options compared"));
+    assert!(has_text(&h, "(coolest)"));
     assert!(
         non_finite_texts(&h).is_empty(),
         "{:?}",

@@ -58,7 +58,15 @@ fn every_shipped_scenario_opens_in_the_window_without_nan() {
         assert!(!h.state().is_dirty());
         assert!(h.state().result().is_some());
         assert!(h.state().input_error().is_none(), "{}", f.display());
-        for tab in [PlotTab::Sweep, PlotTab::Map, PlotTab::BoundaryLayer] {
+        for tab in [
+            PlotTab::Sweep,
+            PlotTab::Map,
+            PlotTab::BoundaryLayer,
+            PlotTab::Canopy,
+            PlotTab::Fans,
+            PlotTab::Shape,
+            PlotTab::Compare,
+        ] {
             h.get_by_label(tab.label()).click();
             h.run();
             assert!(
@@ -211,4 +219,20 @@ fn save_shortcut_without_a_file_asks_for_a_path() {
     assert_eq!(h.state().path(), Some(p.as_path()));
     assert!(ScenarioDocument::load(&p).is_ok());
     std::fs::remove_file(p).ok();
+}
+
+#[test]
+fn export_report_writes_the_grower_report_for_the_open_scenario() {
+    let mut h = harness(ScenarioDocument::default());
+    let dir = temp_path("report");
+    h.state_mut()
+        .push_command(Command::ExportReportTo(dir.clone()));
+    h.run();
+    let html = std::fs::read_to_string(dir.join("report.html")).unwrap();
+    assert!(html.contains(&h.state().document().title));
+    assert!(has_text(&h, "Report written to"));
+    // The same command from the File menu asks for a folder (here: the path field).
+    h.state_mut().push_command(Command::ExportReport);
+    h.run();
+    assert!(has_text(&h, "Export report into a folder"));
 }

@@ -47,6 +47,10 @@ pub enum PathPurpose {
     SaveAs,
     /// Export a plot's data.
     Export(PlotKind),
+    /// Write the grower report into a folder.
+    Report,
+    /// Save the plots area as a PNG image.
+    ViewPng,
 }
 
 impl PathPurpose {
@@ -55,6 +59,8 @@ impl PathPurpose {
             Self::Open => "Open scenario",
             Self::SaveAs => "Save scenario as",
             Self::Export(_) => "Export CSV",
+            Self::Report => "Export report into a folder",
+            Self::ViewPng => "Export view as PNG",
         }
     }
 
@@ -62,7 +68,7 @@ impl PathPurpose {
         match self {
             Self::Open => "Open",
             Self::SaveAs => "Save",
-            Self::Export(_) => "Export",
+            Self::Export(_) | Self::Report | Self::ViewPng => "Export",
         }
     }
 }
@@ -122,6 +128,10 @@ pub struct LeafwindApp {
     commands: Vec<Command>,
     confirm: Option<Command>,
     path_prompt: Option<PathPrompt>,
+    /// Where the plots area was drawn last frame (for "Export view as PNG…").
+    view_rect: Option<egui::Rect>,
+    /// A PNG export waiting for its screenshot: the file and the result slot.
+    view_png: Option<(PathBuf, Arc<Mutex<Option<Result<(), String>>>>)>,
     message: Option<Message>,
     dialogs: DialogMode,
     screenshot: Option<ScreenshotState>,
@@ -171,6 +181,8 @@ impl LeafwindApp {
             commands: Vec::new(),
             confirm: None,
             path_prompt: None,
+            view_rect: None,
+            view_png: None,
             message: None,
             dialogs,
             screenshot: None,
@@ -661,7 +673,9 @@ impl LeafwindApp {
                 });
             self.prefs.layout.result_width = r.response.rect.width();
         }
-        egui::CentralPanel::default().show(ui, |ui| self.central(ui));
+        let central = egui::CentralPanel::default().show(ui, |ui| self.central(ui));
+        self.view_rect = Some(central.response.rect);
+        self.view_png_step(ui.ctx());
     }
 
     fn menu_bar(&mut self, ui: &mut Ui) {
@@ -702,6 +716,9 @@ impl LeafwindApp {
                 ui.separator();
                 item(ui, &mut pushed, Command::Save);
                 item(ui, &mut pushed, Command::SaveAs);
+                ui.separator();
+                item(ui, &mut pushed, Command::ExportReport);
+                item(ui, &mut pushed, Command::ExportViewPng);
                 ui.separator();
                 item(ui, &mut pushed, Command::Quit);
             });
@@ -917,6 +934,8 @@ impl LeafwindApp {
                             PathPurpose::Open => Command::OpenPath(p),
                             PathPurpose::SaveAs => Command::SaveTo(p),
                             PathPurpose::Export(k) => Command::ExportCsvTo(k, p),
+                            PathPurpose::Report => Command::ExportReportTo(p),
+                            PathPurpose::ViewPng => Command::ExportViewPngTo(p),
                         };
                         // Confirmation was already given for Open.
                         self.execute(c, ctx);
@@ -1086,6 +1105,18 @@ impl LeafwindApp {
                 }
             }
             Command::ExportCsvTo(k, p) => self.export_to(k, &p),
+            Command::ExportReport => {
+                if let Some(p) = self.pick(PathPurpose::Report) {
+                    self.export_report_to(&p);
+                }
+            }
+            Command::ExportReportTo(p) => self.export_report_to(&p),
+            Command::ExportViewPng => {
+                if let Some(p) = self.pick(PathPurpose::ViewPng) {
+                    self.export_view_png_to(p, ctx);
+                }
+            }
+            Command::ExportViewPngTo(p) => self.export_view_png_to(p, ctx),
             Command::Quit => {
                 self.allow_close = true;
                 self.quit_requested = true;
@@ -1130,6 +1161,11 @@ impl LeafwindApp {
                     .add_filter("CSV", &["csv"])
                     .set_file_name(k.default_file_name())
                     .save_file(),
+                PathPurpose::Report => dialog.pick_folder(),
+                PathPurpose::ViewPng => dialog
+                    .add_filter("PNG image", &["png"])
+                    .set_file_name(format!("{}.png", file_stem(&self.doc.title)))
+                    .save_file(),
             };
             if picked.is_some() {
                 return picked;
@@ -1153,6 +1189,8 @@ impl LeafwindApp {
                 |p| p.display().to_string(),
             ),
             PathPurpose::Export(k) => k.default_file_name().to_owned(),
+            PathPurpose::Report => format!("{}-report", file_stem(&self.doc.title)),
+            PathPurpose::ViewPng => format!("{}.png", file_stem(&self.doc.title)),
         };
         self.path_prompt = Some(PathPrompt {
             purpose,
@@ -1218,6 +1256,60 @@ impl LeafwindApp {
             }
             // The file on disk is as it was (atomic write); the edits stay, unsaved.
             Err(e) => self.fail(&format!("{e:#}")),
+        }
+    }
+
+    /// Writes the grower report for the open scenario into the folder `p`.
+    fn export_report_to(&mut self, p: &Path) {
+        match crate::report::write_report(&self.doc, p, self.prefs.units) {
+            Ok(files) => self.note(&format!(
+                "Report written to {} ({} CSV tables beside it).",
+                files.html.display(),
+                files.csv.len()
+            )),
+            Err(e) => self.fail(&format!(
+                "The report could not be written: {e:#} ({})",
+                p.display()
+            )),
+        }
+    }
+
+    /// Asks egui for a screenshot; the plots area is cut from it and saved when it arrives.
+    fn export_view_png_to(&mut self, p: PathBuf, ctx: &egui::Context) {
+        let Some(rect) = self.view_rect else {
+            self.fail("The plots area is not on screen yet.");
+            return;
+        };
+        let done = Arc::new(Mutex::new(None));
+        let slot = done.clone();
+        let (path, ppp) = (p.clone(), ctx.pixels_per_point());
+        ctx.request_screenshot(move |image| {
+            let r = save_png(&path, &image.region(&rect, Some(ppp)));
+            if let Ok(mut d) = slot.lock() {
+                *d = Some(r);
+            }
+        });
+        ctx.request_repaint();
+        self.view_png = Some((p, done));
+    }
+
+    /// Reports a finished PNG export.
+    fn view_png_step(&mut self, ctx: &egui::Context) {
+        let Some((p, done)) = &self.view_png else {
+            return;
+        };
+        let finished = done.lock().ok().and_then(|mut d| d.take());
+        match finished {
+            Some(Ok(())) => {
+                let msg = format!("Saved the view to {}.", p.display());
+                self.view_png = None;
+                self.note(&msg);
+            }
+            Some(Err(e)) => {
+                self.view_png = None;
+                self.fail(&e);
+            }
+            None => ctx.request_repaint_after(Duration::from_millis(50)),
         }
     }
 

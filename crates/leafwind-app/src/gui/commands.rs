@@ -54,6 +54,14 @@ pub enum Command {
     ExportCsv(PlotKind),
     /// Export to this file.
     ExportCsvTo(PlotKind, PathBuf),
+    /// Write the grower report (HTML with its plots, and CSV tables) into a folder.
+    ExportReport,
+    /// Write the grower report into this folder.
+    ExportReportTo(PathBuf),
+    /// Save the plots area as it is on screen to a PNG image.
+    ExportViewPng,
+    /// Save the plots area to this PNG file.
+    ExportViewPngTo(PathBuf),
     /// Quit the app.
     Quit,
     /// Switch between SI and imperial units.
@@ -81,6 +89,8 @@ impl Command {
             Self::SaveAs => "Save as…".into(),
             Self::SaveTo(p) => format!("Save to {}", p.display()),
             Self::ExportCsv(_) | Self::ExportCsvTo(..) => "Export CSV…".into(),
+            Self::ExportReport | Self::ExportReportTo(_) => "Export report…".into(),
+            Self::ExportViewPng | Self::ExportViewPngTo(_) => "Export view as PNG…".into(),
             Self::Quit => "Quit".into(),
             Self::ToggleUnits => "Imperial units (°F, ft/min, in)".into(),
             Self::About => "About and cautions…".into(),
@@ -104,6 +114,12 @@ impl Command {
             Self::SaveTo(_) => "Save the scenario to this file.",
             Self::ExportCsv(_) | Self::ExportCsvTo(..) => {
                 "Write this plot's data to a CSV file, in the units shown."
+            }
+            Self::ExportReport | Self::ExportReportTo(_) => {
+                "Write a printable report for a grower (one HTML file with its plots, and the CSV tables behind them) into a folder, in the units shown."
+            }
+            Self::ExportViewPng | Self::ExportViewPngTo(_) => {
+                "Save the plots area as it is on screen (the current tab) to a PNG image."
             }
             Self::Quit => "Close Leafwind (asks first if there are unsaved edits).",
             Self::ToggleUnits => {

@@ -17,6 +17,8 @@ use leafwind_physics::canopy::{
 use leafwind_physics::case::AIR_SPEED_RANGE_M_S;
 use leafwind_physics::crops::{CROP_HEAT_LIMITS, LimitKind};
 use leafwind_physics::design_day::{DayHumidity, DesignDay, HourlySeries};
+
+use crate::canopy_scenario::CoolingTable;
 use leafwind_physics::error::ValidRange;
 use leafwind_physics::greenhouse::{
     CoverTemperature, HEAT_LOSS_RANGE_W_M2_K, SHADE_FRACTION_RANGE, ShadeAnswer,
@@ -56,6 +58,8 @@ pub struct CanopyInput {
     pub margin_k: f64,
     /// Folder of the scenario file (resolves a relative weather file).
     pub dir: Option<PathBuf>,
+    /// Circulation-fan power per floor area for the "fans" cooling options \[W m⁻²\].
+    pub fan_power_w_m2: f64,
 }
 
 impl CanopyInput {
@@ -68,6 +72,13 @@ impl CanopyInput {
             limit_c: doc.heat_limit_c,
             margin_k: doc.margin_k,
             dir: path.and_then(Path::parent).map(Path::to_path_buf),
+            fan_power_w_m2: doc
+                .fans
+                .as_ref()
+                .and_then(|f| leafwind_physics::fans::fan_energy(&f.layout, 24.0).ok())
+                .map_or(crate::canopy_scenario::FAN_POWER_DEFAULT_W_M2, |e| {
+                    e.power_per_floor_w_m2
+                }),
         })
     }
 }
@@ -79,11 +90,12 @@ impl CanopyInput {
 pub fn compute_canopy(input: &CanopyInput) -> Result<CanopyRun, String> {
     input
         .section
-        .run(
+        .run_with_fans(
             &input.case,
             input.limit_c,
             input.margin_k,
             input.dir.as_deref(),
+            input.fan_power_w_m2,
         )
         .map_err(|e| format!("{e:#}"))
 }
@@ -698,6 +710,19 @@ impl CanopyPanel {
         } else {
             ui.add_space(6.0);
             ui.label(RichText::new("Switch the design day on (inputs, “Design day”) to see the hottest leaf hour by hour over a hot day, and the hours and degree-hours over the limit.").weak());
+        }
+        if let Some(d) = &run.dew {
+            ui.add_space(4.0);
+            ui.label(format!(
+                "Night dew over the design day: {:.0} h with leaves below the dew point, {:.0} h within {} of it (leaves at the scenario's air speed, seeing what the leaf inputs set above).",
+                d.hours_below_dew_point,
+                d.hours_below_margin,
+                show(Quantity::TempDiff, d.margin_k, units)
+            ));
+        }
+        if let Some(table) = &run.cooling {
+            ui.add_space(6.0);
+            cooling_table(ui, table, units);
         }
         ui.add_space(4.0);
         ui.label(RichText::new("Caution: the limits are indicative thresholds for planning, not guarantees — damage depends on duration, humidity, cultivar, hardening and water status. Check a heat risk on the crop itself.").small().weak());
@@ -1668,6 +1693,68 @@ fn series_hours(s: &HourlySeries) -> Vec<f64> {
             t - t0
         })
         .collect()
+}
+
+/// The cooling and shading options side by side, with the coolest hottest leaf marked.
+fn cooling_table(ui: &mut Ui, table: &CoolingTable, units: UnitSystem) {
+    ui.strong("Cooling and shading options compared");
+    let rows: Vec<(String, Option<f64>, Option<f64>, Option<f64>, f64, bool)> = match table {
+        CoolingTable::Day(v) => v
+            .iter()
+            .map(|o| {
+                (
+                    o.label.clone(),
+                    o.hottest_leaf_temp_c,
+                    o.min_margin_k,
+                    Some(o.hours_over_limit),
+                    o.water_kg_m2,
+                    false,
+                )
+            })
+            .collect(),
+        CoolingTable::Moment(v) => v
+            .iter()
+            .map(|o| {
+                (
+                    o.label.clone(),
+                    Some(o.hottest_leaf_temp_c),
+                    o.margin_k,
+                    None,
+                    o.water_kg_m2_h,
+                    true,
+                )
+            })
+            .collect(),
+    };
+    let best = rows
+        .iter()
+        .filter_map(|r| r.1.filter(|t| t.is_finite()))
+        .fold(f64::INFINITY, f64::min);
+    egui::Grid::new("cooling-options")
+        .striped(true)
+        .show(ui, |ui| {
+            for h in ["Option", "Hottest leaf", "Margin", "Hours over", "Water"] {
+                ui.strong(h);
+            }
+            ui.end_row();
+            for (label, hot, margin, hours, water, per_hour) in &rows {
+                ui.label(label);
+                let t = hot.map_or("—".to_owned(), |t| show(Quantity::Temperature, t, units));
+                if hot.is_some_and(|t| t == best) {
+                    ui.label(format!("★ {t} (coolest)"));
+                } else {
+                    ui.label(t);
+                }
+                ui.label(margin.map_or("—".to_owned(), |m| show(Quantity::TempDiff, m, units)));
+                ui.label(hours.map_or("— (one moment)".to_owned(), |h| format!("{h:.0} h")));
+                ui.label(format!(
+                    "{water:.2} L/m²{}",
+                    if *per_hour { " per h" } else { "" }
+                ));
+                ui.end_row();
+            }
+        });
+    ui.label(RichText::new("Estimates with the engine's cited default efficiencies and transmittances; pads and fog add humidity — check the crop's disease risk and the water supply.").small().weak());
 }
 
 fn series_block(ui: &mut Ui, what: &str, s: &HourlySeries, units: UnitSystem) {

@@ -38,6 +38,9 @@ pub enum DialogMode {
     PathField,
 }
 
+/// Where a screenshot callback leaves the outcome of saving its PNG.
+type PngSlot = Arc<Mutex<Option<Result<(), String>>>>;
+
 /// What a path typed in the path field is for.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum PathPurpose {
@@ -131,7 +134,7 @@ pub struct LeafwindApp {
     /// Where the plots area was drawn last frame (for "Export view as PNG…").
     view_rect: Option<egui::Rect>,
     /// A PNG export waiting for its screenshot: the file and the result slot.
-    view_png: Option<(PathBuf, Arc<Mutex<Option<Result<(), String>>>>)>,
+    view_png: Option<(PathBuf, PngSlot)>,
     message: Option<Message>,
     dialogs: DialogMode,
     screenshot: Option<ScreenshotState>,

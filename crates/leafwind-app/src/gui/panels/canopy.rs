@@ -1695,10 +1695,14 @@ fn series_hours(s: &HourlySeries) -> Vec<f64> {
         .collect()
 }
 
+/// One row of the options table: label, hottest leaf \[°C\], margin \[K\], hours over \[h\],
+/// water \[L m⁻²\], and whether the water is per hour (a single moment).
+type OptionRow = (String, Option<f64>, Option<f64>, Option<f64>, f64, bool);
+
 /// The cooling and shading options side by side, with the coolest hottest leaf marked.
 fn cooling_table(ui: &mut Ui, table: &CoolingTable, units: UnitSystem) {
     ui.strong("Cooling and shading options compared");
-    let rows: Vec<(String, Option<f64>, Option<f64>, Option<f64>, f64, bool)> = match table {
+    let rows: Vec<OptionRow> = match table {
         CoolingTable::Day(v) => v
             .iter()
             .map(|o| {

@@ -4,7 +4,8 @@
 #      release (crates/leafwind-physics/examples/closure_check.rs), with required_wind re-checked
 #      on every 100th case and the balance scanned for a second root on every 10th;
 #   2. the parser fuzz tests and the range-boundary tests (tests/fuzz_parsers.rs, tests/ranges.rs)
-#      with PROPTEST_CASES cases per property (default 10 000).
+#      with PROPTEST_CASES cases per property (default 10 000);
+#   3. the scenario-loader fuzz tests (crates/leafwind-app/tests/fuzz_scenarios.rs), likewise.
 # Every step runs even if an earlier one fails; the script fails if any did.
 #
 # Figures measured on this 2-core machine (AMD EPYC, Rust 1.95, warm target folder), 2026-12-02:
@@ -46,6 +47,9 @@ step "closure check, $cases cases, seed $seed" \
 step "parser fuzz and range boundaries, $proptest_cases cases per property" \
   env PROPTEST_CASES="$proptest_cases" \
   cargo test --locked --no-fail-fast -p leafwind-checks --test fuzz_parsers --test ranges
+step "scenario loader fuzz, $proptest_cases cases per property" \
+  env PROPTEST_CASES="$proptest_cases" \
+  cargo test --locked --no-fail-fast -p leafwind-app --test fuzz_scenarios
 
 if ((${#failed[@]})); then
   printf 'robustness FAILED: %s\n' "${failed[@]}" >&2

@@ -64,6 +64,7 @@ fn fans_tab_shows_the_estimate_the_answers_and_the_caution_without_nan() {
     let mut h = harness(glasshouse());
     h.state_mut().set_tab(PlotTab::Fans);
     h.run();
+    assert!(has_text(&h, "Section along the house, to scale"));
     assert!(h.state().fans_run().is_some());
     assert!(has_text(&h, "Slowest canopy-top air speed"));
     assert!(has_text(&h, "verify with an anemometer"));

@@ -798,6 +798,12 @@ impl FansPanel {
         }
         plan_plot(ui, &section.layout, run, units);
         ui.add_space(6.0);
+        let crop_height_m = doc.canopy.as_ref().map_or_else(
+            || CanopyStructure::default().height_m,
+            |c| c.structure.height_m,
+        );
+        section_plot(ui, &section.layout, run, crop_height_m, units);
+        ui.add_space(6.0);
         self.speed_plot(ui, run, section, doc, units);
     }
 
@@ -1123,6 +1129,93 @@ fn plan_plot(ui: &mut Ui, layout: &FanLayout, run: &FansRun, units: UnitSystem) 
         ))
         .small()
         .weak(),
+    );
+}
+
+/// The house seen from the side, to scale: each row's jets from their mounting height (with the
+/// tilt), their half-velocity width growing at the spread rate, and the top of the crop.
+fn section_plot(
+    ui: &mut Ui,
+    layout: &FanLayout,
+    run: &FansRun,
+    crop_height_m: f64,
+    units: UnitSystem,
+) {
+    let xq = Quantity::Altitude;
+    let u = xq.unit(units);
+    let d = |m: f64| xq.to_display(m, units);
+    let l = layout.house_length_m;
+    let h0 = layout.mounting_height_m;
+    ui.label(
+        RichText::new("Section along the house, to scale: the jets' reach over the crop").strong(),
+    );
+    let reach = run.estimate.rules.throw_jet_m.unwrap_or(l).min(l);
+    let spread = JET_HCG1994.spread_rate;
+    let slope = -layout.tilt_down_rad.tan();
+    let top = (h0 + spread * reach + layout.fan.diameter_m).max(crop_height_m) * 1.3;
+    Plot::new("fans-section")
+        .height(150.0)
+        .data_aspect(1.0)
+        .legend(
+            Legend::default()
+                .follow_insertion_order(true)
+                .text_style(egui::TextStyle::Small)
+                .position(egui_plot::Corner::RightTop),
+        )
+        .x_axis_label(format!("Along the house [{u}]"))
+        .y_axis_label(format!("Height [{u}]"))
+        .include_x(d(-0.02 * l))
+        .include_x(d(1.02 * l))
+        .include_y(0.0)
+        .include_y(d(top))
+        .label_formatter(move |p| hover_text(p, u, u, 1, 1))
+        .show(ui, |p| {
+            p.line(
+                Line::new(
+                    "crop top",
+                    vec![[0.0, d(crop_height_m)], [d(l), d(crop_height_m)]],
+                )
+                .color(egui::Color32::from_rgb(60, 160, 80))
+                .width(2.0),
+            );
+            p.line(
+                Line::new("floor", vec![[0.0, 0.0], [d(l), 0.0]])
+                    .color(egui::Color32::from_gray(140))
+                    .width(2.0),
+            );
+            let mut fans_xz = Vec::new();
+            for f in &layout.positions() {
+                let to_wall = if f.direction > 0.0 { l - f.x_m } else { f.x_m };
+                let s = reach.min(to_wall).max(0.0);
+                let x1 = f.x_m + f.direction * s;
+                let half = spread * s + 0.5 * layout.fan.diameter_m;
+                let z1 = h0 + slope * s;
+                let r0 = 0.5 * layout.fan.diameter_m;
+                let wedge = vec![
+                    [d(f.x_m), d(h0 + r0)],
+                    [d(x1), d(z1 + half)],
+                    [d(x1), d((z1 - half).max(0.0))],
+                    [d(f.x_m), d(h0 - r0)],
+                ];
+                p.polygon(
+                    Polygon::new("jet reach (half-velocity width)", wedge)
+                        .fill_color(PALETTE[1].gamma_multiply(0.10))
+                        .stroke(egui::Stroke::new(0.8, PALETTE[1].gamma_multiply(0.6))),
+                );
+                fans_xz.push([d(f.x_m), d(h0)]);
+            }
+            p.points(
+                Points::new("fans", fans_xz)
+                    .shape(MarkerShape::Square)
+                    .radius(4.0)
+                    .color(PALETTE[0])
+                    .filled(true),
+            );
+        });
+    ui.label(
+        RichText::new("Where a wedge stays above the green line the jet passes over the crop: mount the fans lower or tilt them down. Rows overlap in this side view.")
+            .small()
+            .weak(),
     );
 }
 

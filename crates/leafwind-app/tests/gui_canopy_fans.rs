@@ -5,6 +5,8 @@
 
 mod gui_support;
 
+use egui::accesskit::Role;
+
 use egui_kittest::kittest::{NodeT as _, Queryable};
 use gui_support::{harness, has_text, non_finite_texts, set_slider};
 use leafwind_app::gui::commands::Command;
@@ -336,4 +338,45 @@ fn the_open_field_example_canopy_has_no_shade_answer_and_says_why() {
         "{:?}",
         non_finite_texts(&h)
     );
+}
+
+#[test]
+fn a_weather_file_typed_in_the_canopy_tab_is_run_hour_by_hour() {
+    let dir = std::env::temp_dir().join(format!("leafwind-gui-weather-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let file = dir.join("hours.csv");
+    std::fs::write(
+        &file,
+        "time,air_temp_c,rh_pct,wind_m_s,shortwave_w_m2\n\
+         2026-07-15 12:00,31,45,1.0,850\n\
+         2026-07-15 13:00,32,bad,1.0,870\n\
+         2026-07-15 14:00,33,40,1.2,820\n",
+    )
+    .unwrap();
+    let mut h = harness(glasshouse());
+    h.state_mut().set_tab(PlotTab::Canopy);
+    h.run();
+    h.get_by_label("Weather file").click();
+    h.run();
+    h.get_by_role_and_label(Role::TextInput, "Hourly weather CSV")
+        .focus();
+    h.run();
+    h.get_by_role_and_label(Role::TextInput, "Hourly weather CSV")
+        .type_text(&file.display().to_string());
+    h.run();
+    assert_eq!(
+        h.state()
+            .document()
+            .canopy
+            .as_ref()
+            .unwrap()
+            .weather_csv
+            .as_deref(),
+        Some(file.as_path())
+    );
+    let run = h.state().canopy_run().unwrap();
+    let (series, rejected) = run.weather.as_ref().expect("the weather file was run");
+    assert_eq!(series.hours.len(), 2);
+    assert_eq!(rejected.len(), 1);
+    assert!(non_finite_texts(&h).is_empty());
 }

@@ -1072,6 +1072,30 @@ fn section_inputs(
             design_day_inputs(ui, d, units);
         }
     });
+    group(ui, "Weather file", false, |ui| {
+        let mut text = c
+            .weather_csv
+            .as_ref()
+            .map(|p| p.display().to_string())
+            .unwrap_or_default();
+        ui.horizontal(|ui| {
+            field_label(
+                ui,
+                "Hourly weather CSV",
+                "A logger or weather-service file run hour by hour like the design day. Columns: time (YYYY-MM-DD HH:MM, local clock), air_temp_c, rh_pct, wind_m_s, shortwave_w_m2, optionally pressure_kpa. A path relative to the scenario file's folder, or absolute. Rows that cannot be read are listed and skipped; the others still run. Empty: no weather file.",
+            );
+            let r = ui.add(
+                egui::TextEdit::singleline(&mut text)
+                    .desired_width(200.0)
+                    .hint_text("weather.csv"),
+            );
+            name_widget(ui, &r, "Hourly weather CSV");
+            if r.changed() {
+                let t = text.trim();
+                c.weather_csv = (!t.is_empty()).then(|| PathBuf::from(t));
+            }
+        });
+    });
     group(ui, "Search", false, |ui| {
         number_field(
             ui,

@@ -128,9 +128,14 @@ pub struct CanopySection {
     /// The greenhouse, if the crop is under cover.
     #[serde(default)]
     pub greenhouse: Option<GreenhouseSection>,
-    /// A built-in crop limit; without it the scenario's own limit is taken as a leaf (tissue) limit.
+    /// A crop limit by crop and stage: the scenario's own list first, then the built-in table;
+    /// without it the scenario's own limit is taken as a leaf (tissue) limit.
     #[serde(default)]
     pub crop: Option<CropChoice>,
+    /// The user's own crop limits (crop, stage, limit, air or tissue, source), kept with the
+    /// scenario and offered beside the built-in ones.
+    #[serde(default)]
+    pub own_limits: Vec<HeatLimit>,
     /// A design day to run hour by hour.
     #[serde(default)]
     pub design_day: Option<DesignDay>,
@@ -151,6 +156,7 @@ impl Default for CanopySection {
             light: LightAbove::ClearSky,
             greenhouse: None,
             crop: None,
+            own_limits: Vec::new(),
             design_day: None,
             weather_csv: None,
             max_search_speed_m_s: CANOPY_SEARCH_MAX_DEFAULT_M_S,
@@ -224,7 +230,13 @@ impl CanopySection {
     /// An unknown crop or stage (the message lists the valid ones).
     pub fn limit(&self, own_limit_c: f64) -> Result<HeatLimit> {
         match &self.crop {
-            Some(c) => Ok(crops::find(&c.crop, &c.stage)?.clone()),
+            Some(c) => match self.own_limit(c) {
+                Some(l) => {
+                    l.validate()?;
+                    Ok(l.clone())
+                }
+                None => Ok(crops::find(&c.crop, &c.stage)?.clone()),
+            },
             None => Ok(HeatLimit::user(
                 "this scenario's crop",
                 "as set",
@@ -232,6 +244,18 @@ impl CanopySection {
                 LimitKind::Tissue,
             )),
         }
+    }
+
+    /// The user's own limit for `choice` (crop and stage matched case-insensitively, the stage by
+    /// its start, as the built-in lookup does).
+    #[must_use]
+    pub fn own_limit(&self, choice: &CropChoice) -> Option<&HeatLimit> {
+        self.own_limits.iter().find(|l| {
+            l.crop.eq_ignore_ascii_case(&choice.crop)
+                && l.stage
+                    .to_lowercase()
+                    .starts_with(&choice.stage.to_lowercase())
+        })
     }
 
     /// The light above at the moment, and the sun.

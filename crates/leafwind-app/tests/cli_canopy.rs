@@ -178,3 +178,32 @@ fn scenario_without_canopy_is_a_named_error() {
         "{msg}"
     );
 }
+
+#[test]
+fn the_users_own_crop_limit_is_found_before_the_built_in_ones() {
+    use leafwind_app::canopy_scenario::CropChoice;
+    use leafwind_physics::crops::{HeatLimit, LimitKind};
+    let dir = temp_dir("own-limit");
+    let mut doc = hot_field();
+    if let Some(c) = doc.canopy.as_mut() {
+        c.design_day = None;
+        // The user's own tomato limit shadows the built-in tomato entry of the same stage.
+        let mut mine =
+            HeatLimit::user("tomato", "flowering and fruit set", 30.5, LimitKind::Tissue);
+        mine.source = "our own trial, 2025 (invented for this test)".into();
+        c.own_limits = vec![mine];
+        c.crop = Some(CropChoice {
+            crop: "Tomato".into(),
+            stage: "flowering".into(),
+        });
+    }
+    let v = json(write(&doc, &dir));
+    assert_eq!(v["limit_c"].as_f64(), Some(30.5));
+    assert_eq!(v["limit_kind"].as_str(), Some("tissue"));
+    assert!(
+        v["limit_source"]
+            .as_str()
+            .unwrap()
+            .contains("our own trial")
+    );
+}

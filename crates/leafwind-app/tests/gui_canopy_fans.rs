@@ -380,3 +380,19 @@ fn a_weather_file_typed_in_the_canopy_tab_is_run_hour_by_hour() {
     assert_eq!(rejected.len(), 1);
     assert!(non_finite_texts(&h).is_empty());
 }
+
+#[test]
+fn own_crop_limits_are_added_in_the_canopy_tab_and_kept_in_the_scenario() {
+    let mut h = harness(glasshouse());
+    h.state_mut().set_tab(PlotTab::Canopy);
+    h.run();
+    h.get_by_label("Your own crop limits (0)").click();
+    h.run();
+    h.get_by_label("Add my own crop limit").click();
+    h.run();
+    let c = h.state().document().canopy.clone().unwrap();
+    assert_eq!(c.own_limits.len(), 1);
+    assert!(h.state().is_dirty());
+    assert!(has_text(&h, "Your own crop limits (1)"));
+    assert!(non_finite_texts(&h).is_empty());
+}

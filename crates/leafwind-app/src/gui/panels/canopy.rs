@@ -15,7 +15,7 @@ use leafwind_physics::canopy::{
     SEARCH_MAX_RANGE_M_S, SpeedAnswer, SpeedObstacle, WIND_ATTENUATION_RANGE,
 };
 use leafwind_physics::case::AIR_SPEED_RANGE_M_S;
-use leafwind_physics::crops::{CROP_HEAT_LIMITS, LimitKind};
+use leafwind_physics::crops::{CROP_HEAT_LIMITS, HeatLimit, LimitKind};
 use leafwind_physics::design_day::{DayHumidity, DesignDay, HourlySeries};
 
 use crate::canopy_scenario::CoolingTable;
@@ -1346,16 +1346,25 @@ fn crop_limit_row(ui: &mut Ui, c: &mut CanopySection, own_limit_c: f64, units: U
         "This scenario's own limit ({}, leaf)",
         show(Quantity::Temperature, own_limit_c, units)
     );
+    // The user's own limits first, then the built-in table.
+    let entries: Vec<HeatLimit> = c
+        .own_limits
+        .iter()
+        .cloned()
+        .chain(CROP_HEAT_LIMITS.iter().cloned())
+        .collect();
     let current = c.crop.as_ref().and_then(|ch| {
-        CROP_HEAT_LIMITS.iter().position(|l| {
+        entries.iter().position(|l| {
             l.crop.eq_ignore_ascii_case(&ch.crop)
                 && l.stage.to_lowercase().starts_with(&ch.stage.to_lowercase())
         })
     });
+    let n_own = c.own_limits.len();
     let entry_text = |i: usize| {
-        let l = &CROP_HEAT_LIMITS[i];
+        let l = &entries[i];
         format!(
-            "{} — {} ({} {})",
+            "{}{} — {} ({} {})",
+            if i < n_own { "yours: " } else { "" },
             l.crop,
             l.stage,
             l.kind.word(),
@@ -1365,7 +1374,7 @@ fn crop_limit_row(ui: &mut Ui, c: &mut CanopySection, own_limit_c: f64, units: U
     let selected = match (&c.crop, current) {
         (None, _) => own.clone(),
         (Some(_), Some(i)) => entry_text(i),
-        (Some(ch), None) => format!("{} — {} (not in the built-in list)", ch.crop, ch.stage),
+        (Some(ch), None) => format!("{} — {} (not in the lists)", ch.crop, ch.stage),
     };
     let mut choice: Option<usize> = current;
     let was_own = c.crop.is_none();
@@ -1374,7 +1383,7 @@ fn crop_limit_row(ui: &mut Ui, c: &mut CanopySection, own_limit_c: f64, units: U
         field_label(
             ui,
             "Crop limit",
-            "Which temperature the hottest leaf is held below: the scenario's own leaf limit (leaf inputs, “Crop heat limit”), or a built-in crop and stage (hover an entry for its source). Air limits are compared with the air around the crop as the engine states.",
+            "Which temperature the hottest leaf is held below: the scenario's own leaf limit (leaf inputs, “Crop heat limit”), one of your own crop limits (below), or a built-in crop and stage (hover an entry for its source). Air limits are compared with the air around the crop as the engine states.",
         );
         let r = ComboBox::from_id_salt("canopy-crop-limit")
             .selected_text(RichText::new(selected).small())
@@ -1388,7 +1397,7 @@ fn crop_limit_row(ui: &mut Ui, c: &mut CanopySection, own_limit_c: f64, units: U
                     own_chosen = true;
                     choice = None;
                 }
-                for (i, l) in CROP_HEAT_LIMITS.iter().enumerate() {
+                for (i, l) in entries.iter().enumerate() {
                     if ui
                         .selectable_label(current == Some(i), entry_text(i))
                         .on_hover_text(format!(
@@ -1413,7 +1422,7 @@ fn crop_limit_row(ui: &mut Ui, c: &mut CanopySection, own_limit_c: f64, units: U
     } else if let Some(i) = choice
         && current != Some(i)
     {
-        let l = &CROP_HEAT_LIMITS[i];
+        let l = &entries[i];
         c.crop = Some(CropChoice {
             crop: l.crop.to_string(),
             stage: l.stage.to_string(),
@@ -1421,11 +1430,80 @@ fn crop_limit_row(ui: &mut Ui, c: &mut CanopySection, own_limit_c: f64, units: U
     }
     if let Some(i) = current {
         ui.label(
-            RichText::new(format!("Source: {}", CROP_HEAT_LIMITS[i].source))
+            RichText::new(format!("Source: {}", entries[i].source))
                 .small()
                 .weak(),
         );
     }
+    own_limits_editor(ui, c, units);
+}
+
+/// Add, edit and remove the user's own crop limits (kept in the scenario file).
+fn own_limits_editor(ui: &mut Ui, c: &mut CanopySection, units: UnitSystem) {
+    ui.collapsing(format!("Your own crop limits ({})", c.own_limits.len()), |ui| {
+        let mut remove = None;
+        for (i, l) in c.own_limits.iter_mut().enumerate() {
+            ui.push_id(("own-limit", i), |ui| {
+                let mut crop = l.crop.to_string();
+                let mut stage = l.stage.to_string();
+                let mut source = l.source.to_string();
+                ui.horizontal(|ui| {
+                    let r = ui.add(egui::TextEdit::singleline(&mut crop).desired_width(90.0));
+                    name_widget(ui, &r, "Own limit crop");
+                    let r = ui.add(egui::TextEdit::singleline(&mut stage).desired_width(110.0));
+                    name_widget(ui, &r, "Own limit stage");
+                    if ui.small_button("Remove").clicked() {
+                        remove = Some(i);
+                    }
+                });
+                number_field(
+                    ui,
+                    &Field {
+                        label: "Own limit",
+                        quantity: Quantity::Temperature,
+                        range: leafwind_physics::required_wind::LIMIT_RANGE_C,
+                        slider: (20.0, 50.0),
+                        log: false,
+                        decimals: Some(1),
+                        tooltip: "Your limit for this crop and stage.",
+                    },
+                    &mut l.limit_c,
+                    units,
+                    |_| None,
+                );
+                ui.horizontal(|ui| {
+                    ui.radio_value(&mut l.kind, LimitKind::Tissue, "leaf (tissue)");
+                    ui.radio_value(&mut l.kind, LimitKind::Air, "air");
+                });
+                ui.horizontal(|ui| {
+                    ui.label(RichText::new("Source").small());
+                    let r = ui.add(egui::TextEdit::singleline(&mut source).desired_width(220.0));
+                    name_widget(ui, &r, "Own limit source");
+                });
+                if crop != l.crop || stage != l.stage || source != l.source {
+                    l.crop = crop.into();
+                    l.stage = stage.into();
+                    l.source = source.into();
+                }
+                ui.separator();
+            });
+        }
+        if let Some(i) = remove {
+            c.own_limits.remove(i);
+        }
+        if ui
+            .button("Add my own crop limit")
+            .on_hover_text("A crop and stage with your own limit and where it comes from; saved with the scenario and offered in the list above.")
+            .clicked()
+        {
+            c.own_limits.push(HeatLimit::user(
+                "my crop",
+                "my stage",
+                35.0,
+                LimitKind::Tissue,
+            ));
+        }
+    });
 }
 
 fn design_day_inputs(ui: &mut Ui, d: &mut DesignDay, units: UnitSystem) {

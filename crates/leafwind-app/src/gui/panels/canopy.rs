@@ -103,6 +103,60 @@ pub fn compute_canopy(input: &CanopyInput) -> Result<CanopyRun, String> {
 // ---------------------------------------------------------------------------------------------
 // Shared helpers (also used by the fans tab)
 
+/// The page of a tab whose scenario section is missing: a heading, what the section gives, and its
+/// "Add …" button. Returns whether the button was clicked.
+pub fn missing_section_ui(
+    ui: &mut Ui,
+    heading: &str,
+    explanation: &[&str],
+    button: &str,
+    tooltip: &str,
+) -> bool {
+    ui.add_space(8.0);
+    ui.heading(heading);
+    for text in explanation {
+        ui.label(*text);
+    }
+    ui.add_space(6.0);
+    ui.button(button).on_hover_text(tooltip).clicked()
+}
+
+/// The row above a section's tab: show or hide its inputs column, and remove the section.
+/// Returns whether "Remove" was clicked.
+pub fn section_toolbar(
+    ui: &mut Ui,
+    show_inputs: &mut bool,
+    show_label: &str,
+    remove: &str,
+    remove_tooltip: &str,
+) -> bool {
+    let mut removed = false;
+    ui.horizontal(|ui| {
+        ui.checkbox(show_inputs, show_label)
+            .on_hover_text("Hide the inputs column to give the plots the full width.");
+        ui.separator();
+        removed = ui.button(remove).on_hover_text(remove_tooltip).clicked();
+    });
+    removed
+}
+
+/// A section's inputs: a resizable column on the left with its own scroll area.
+pub fn inputs_column(ui: &mut Ui, id: &str, add: impl FnOnce(&mut Ui)) {
+    egui::Panel::left(format!("{id}-inputs"))
+        .resizable(true)
+        .default_size(340.0)
+        .size_range(300.0..=480.0)
+        .show(ui, |ui| {
+            ScrollArea::vertical()
+                .id_salt(format!("{id}-inputs-scroll"))
+                .auto_shrink([false, false])
+                .show(ui, |ui| {
+                    ui.spacing_mut().slider_width = 100.0;
+                    add(ui);
+                });
+        });
+}
+
 /// A number with its unit, or "—" when it is not finite.
 #[must_use]
 pub fn show(q: Quantity, si: f64, units: UnitSystem) -> String {
@@ -519,18 +573,16 @@ impl CanopyPanel {
     ) -> Vec<Command> {
         let mut commands = Vec::new();
         let Some(section) = &doc.canopy else {
-            ui.add_space(8.0);
-            ui.heading("Canopy & day");
-            ui.label("This scenario has no canopy (crop) section. Add one to see the whole crop rather than one leaf: how hot the sunlit and shaded leaves run from the top of the crop to the bottom, the least canopy-top air speed and the least shade that keep the hottest leaf below the crop's limit, and — with a design day — how many hours of a hot day the crop spends over it.");
-            ui.label("The section starts from an invented tomato-like crop (leaf area index 3, 2 m tall) at an invented mid-latitude site on 21 July at 14:00, in the open field; switch the greenhouse on to put it under cover.");
-            ui.add_space(6.0);
-            if ui
-                .button("Add a canopy (crop) section")
-                .on_hover_text(
-                    "Adds a canopy section with default inputs to the scenario (an unsaved edit).",
-                )
-                .clicked()
-            {
+            if missing_section_ui(
+                ui,
+                "Canopy & day",
+                &[
+                    "This scenario has no canopy (crop) section. Add one to see the whole crop rather than one leaf: how hot the sunlit and shaded leaves run from the top of the crop to the bottom, the least canopy-top air speed and the least shade that keep the hottest leaf below the crop's limit, and — with a design day — how many hours of a hot day the crop spends over it.",
+                    "The section starts from an invented tomato-like crop (leaf area index 3, 2 m tall) at an invented mid-latitude site on 21 July at 14:00, in the open field; switch the greenhouse on to put it under cover.",
+                ],
+                "Add a canopy (crop) section",
+                "Adds a canopy section with default inputs to the scenario (an unsaved edit).",
+            ) {
                 let mut d = doc.clone();
                 d.canopy = Some(CanopySection::default());
                 commands.push(Command::Edit(Box::new(d)));
@@ -538,34 +590,21 @@ impl CanopyPanel {
             return commands;
         };
         let mut edited = doc.clone();
-        ui.horizontal(|ui| {
-            ui.checkbox(&mut self.show_inputs, "Show the canopy inputs")
-                .on_hover_text("Hide the inputs column to give the plots the full width.");
-            ui.separator();
-            if ui
-                .button("Remove the canopy section")
-                .on_hover_text("Removes the canopy section from the scenario (an unsaved edit).")
-                .clicked()
-            {
-                edited.canopy = None;
-            }
-        });
+        if section_toolbar(
+            ui,
+            &mut self.show_inputs,
+            "Show the canopy inputs",
+            "Remove the canopy section",
+            "Removes the canopy section from the scenario (an unsaved edit).",
+        ) {
+            edited.canopy = None;
+        }
         if self.show_inputs {
-            egui::Panel::left("canopy-inputs")
-                .resizable(true)
-                .default_size(340.0)
-                .size_range(300.0..=480.0)
-                .show(ui, |ui| {
-                    ScrollArea::vertical()
-                        .id_salt("canopy-inputs-scroll")
-                        .auto_shrink([false, false])
-                        .show(ui, |ui| {
-                            ui.spacing_mut().slider_width = 100.0;
-                            if let Some(c) = edited.canopy.as_mut() {
-                                section_inputs(ui, c, &doc.case, doc.heat_limit_c, units);
-                            }
-                        });
-                });
+            inputs_column(ui, "canopy", |ui| {
+                if let Some(c) = edited.canopy.as_mut() {
+                    section_inputs(ui, c, &doc.case, doc.heat_limit_c, units);
+                }
+            });
         }
         ScrollArea::vertical()
             .id_salt("canopy-results-scroll")

@@ -31,8 +31,9 @@ use crate::gui::commands::Command;
 use crate::gui::document::ScenarioDocument;
 use crate::gui::fields::{ERROR_COLOUR, Field, field_label, name_widget, number_field};
 use crate::gui::panels::canopy::{
-    ExportPrompt, cell, count_field, export_prompt_ui, export_ui, head, humidity_field, num, show,
-    show_speed, status_line, write_csv,
+    ExportPrompt, cell, count_field, export_prompt_ui, export_ui, head, humidity_field,
+    inputs_column, missing_section_ui, num, section_toolbar, show, show_speed, status_line,
+    write_csv,
 };
 use crate::gui::panels::sweep::{LIMIT_COLOUR, PALETTE, hover_text};
 use crate::gui::units::{Quantity, UnitSystem};
@@ -386,18 +387,16 @@ impl FansPanel {
     ) -> Vec<Command> {
         let mut commands = Vec::new();
         let Some(section) = &doc.fans else {
-            ui.add_space(8.0);
-            ui.heading("Fans & night");
-            ui.label("This scenario has no fans section. Add one to lay out horizontal-airflow (circulation) fans in the house: see the house to scale with each fan's jet, the air speed they give along the house at the canopy top (a low / typical / high estimate from free-jet theory, to verify with an anemometer), which fans reach a target speed, where more air stops cooling the leaf, the fans' power and energy, and — with a night check — whether the leaves stay above the dew point.");
-            ui.label("The section starts from an invented layout: two rows of four 0.5 m fans, 3 m up, 15 m apart, in a 60 m × 10 m house.");
-            ui.add_space(6.0);
-            if ui
-                .button("Add a fans section")
-                .on_hover_text(
-                    "Adds a fans section with default inputs to the scenario (an unsaved edit).",
-                )
-                .clicked()
-            {
+            if missing_section_ui(
+                ui,
+                "Fans & night",
+                &[
+                    "This scenario has no fans section. Add one to lay out horizontal-airflow (circulation) fans in the house: see the house to scale with each fan's jet, the air speed they give along the house at the canopy top (a low / typical / high estimate from free-jet theory, to verify with an anemometer), which fans reach a target speed, where more air stops cooling the leaf, the fans' power and energy, and — with a night check — whether the leaves stay above the dew point.",
+                    "The section starts from an invented layout: two rows of four 0.5 m fans, 3 m up, 15 m apart, in a 60 m × 10 m house.",
+                ],
+                "Add a fans section",
+                "Adds a fans section with default inputs to the scenario (an unsaved edit).",
+            ) {
                 let mut d = doc.clone();
                 d.fans = Some(FansSection::default());
                 commands.push(Command::Edit(Box::new(d)));
@@ -405,34 +404,21 @@ impl FansPanel {
             return commands;
         };
         let mut edited = doc.clone();
-        ui.horizontal(|ui| {
-            ui.checkbox(&mut self.show_inputs, "Show the fan inputs")
-                .on_hover_text("Hide the inputs column to give the plots the full width.");
-            ui.separator();
-            if ui
-                .button("Remove the fans section")
-                .on_hover_text("Removes the fans section from the scenario (an unsaved edit).")
-                .clicked()
-            {
-                edited.fans = None;
-            }
-        });
+        if section_toolbar(
+            ui,
+            &mut self.show_inputs,
+            "Show the fan inputs",
+            "Remove the fans section",
+            "Removes the fans section from the scenario (an unsaved edit).",
+        ) {
+            edited.fans = None;
+        }
         if self.show_inputs {
-            egui::Panel::left("fans-inputs")
-                .resizable(true)
-                .default_size(340.0)
-                .size_range(300.0..=480.0)
-                .show(ui, |ui| {
-                    ScrollArea::vertical()
-                        .id_salt("fans-inputs-scroll")
-                        .auto_shrink([false, false])
-                        .show(ui, |ui| {
-                            ui.spacing_mut().slider_width = 100.0;
-                            if let Some(f) = edited.fans.as_mut() {
-                                self.section_inputs(ui, f, units);
-                            }
-                        });
-                });
+            inputs_column(ui, "fans", |ui| {
+                if let Some(f) = edited.fans.as_mut() {
+                    self.section_inputs(ui, f, units);
+                }
+            });
         }
         ScrollArea::vertical()
             .id_salt("fans-results-scroll")

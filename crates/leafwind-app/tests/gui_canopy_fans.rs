@@ -8,7 +8,7 @@ mod gui_support;
 use egui::accesskit::Role;
 
 use egui_kittest::kittest::{NodeT as _, Queryable};
-use gui_support::{harness, has_text, non_finite_texts, set_slider};
+use gui_support::{assert_no_non_finite, harness, has_text, non_finite_texts, set_slider};
 use leafwind_app::gui::commands::Command;
 use leafwind_app::gui::document::{ScenarioDocument, first_example};
 use leafwind_app::gui::prefs::PlotTab;
@@ -44,21 +44,13 @@ fn canopy_tab_shows_the_hottest_leaf_and_the_answers_without_nan() {
     assert!(has_text(&h, "Night dew over the design day"));
     assert!(has_text(&h, "Cooling and shading options compared"));
     assert!(has_text(&h, "(coolest)"));
-    assert!(
-        non_finite_texts(&h).is_empty(),
-        "{:?}",
-        non_finite_texts(&h)
-    );
+    assert_no_non_finite(&h);
     // Imperial: temperatures in °F and the air speed also in ft/min.
     h.state_mut().push_command(Command::ToggleUnits);
     h.run();
     assert!(has_text(&h, "ft/min"));
     assert!(has_text(&h, "°F"));
-    assert!(
-        non_finite_texts(&h).is_empty(),
-        "{:?}",
-        non_finite_texts(&h)
-    );
+    assert_no_non_finite(&h);
 }
 
 #[test]
@@ -77,20 +69,12 @@ fn fans_tab_shows_the_estimate_the_answers_and_the_caution_without_nan() {
     assert!(has_text(&h, "leaf − dew point"));
     assert!(has_text(&h, "Least air speed against dew"));
     assert!(has_text(&h, "licensed electricians"));
-    assert!(
-        non_finite_texts(&h).is_empty(),
-        "{:?}",
-        non_finite_texts(&h)
-    );
+    assert_no_non_finite(&h);
     h.state_mut().push_command(Command::ToggleUnits);
     h.run();
     assert!(has_text(&h, "cfm"));
     assert!(has_text(&h, "ft/min"));
-    assert!(
-        non_finite_texts(&h).is_empty(),
-        "{:?}",
-        non_finite_texts(&h)
-    );
+    assert_no_non_finite(&h);
 }
 
 #[test]
@@ -106,11 +90,7 @@ fn add_a_canopy_section_marks_the_document_unsaved_and_solves_it() {
     assert!(h.state().title().starts_with('*'));
     assert!(h.state().canopy_run().is_some());
     assert!(has_text(&h, "Hottest leaf:"));
-    assert!(
-        non_finite_texts(&h).is_empty(),
-        "{:?}",
-        non_finite_texts(&h)
-    );
+    assert_no_non_finite(&h);
 }
 
 #[test]
@@ -124,11 +104,7 @@ fn add_a_fans_section_marks_the_document_unsaved_and_solves_it() {
     assert!(h.state().is_dirty());
     assert!(h.state().fans_run().is_some());
     assert!(has_text(&h, "Slowest canopy-top air speed"));
-    assert!(
-        non_finite_texts(&h).is_empty(),
-        "{:?}",
-        non_finite_texts(&h)
-    );
+    assert_no_non_finite(&h);
 }
 
 #[test]
@@ -190,11 +166,7 @@ fn an_invalid_canopy_input_shows_its_error_and_keeps_the_last_result() {
     assert!(has_text(&h, "Could not update"));
     assert_eq!(hottest_c(&h), before);
     assert!(has_text(&h, "Hottest leaf:"));
-    assert!(
-        non_finite_texts(&h).is_empty(),
-        "{:?}",
-        non_finite_texts(&h)
-    );
+    assert_no_non_finite(&h);
 }
 
 #[test]
@@ -208,11 +180,7 @@ fn an_invalid_fan_input_shows_its_error_and_keeps_the_last_result() {
     assert!(has_text(&h, "Could not update"));
     assert_eq!(h.state().fans_run().unwrap().energy.power_w, before);
     assert!(has_text(&h, "Slowest canopy-top air speed"));
-    assert!(
-        non_finite_texts(&h).is_empty(),
-        "{:?}",
-        non_finite_texts(&h)
-    );
+    assert_no_non_finite(&h);
 }
 
 /// Exports a plot's data through its "Export … CSV…" button with the suggested path (beside the
@@ -313,11 +281,7 @@ fn fan_airflow_is_typed_in_cfm_when_imperial() {
     // 1 cfm = 0.3048³/60 m³/s exactly (international foot).
     let expected = 2000.0 * 0.3048_f64.powi(3) / 60.0;
     assert!((q - expected).abs() < 1e-9, "{q} vs {expected}");
-    assert!(
-        non_finite_texts(&h).is_empty(),
-        "{:?}",
-        non_finite_texts(&h)
-    );
+    assert_no_non_finite(&h);
 }
 
 #[test]
@@ -333,11 +297,7 @@ fn the_open_field_example_canopy_has_no_shade_answer_and_says_why() {
     h.run();
     assert!(has_text(&h, "shade sizing needs a greenhouse"));
     assert!(has_text(&h, "Hottest leaf:"));
-    assert!(
-        non_finite_texts(&h).is_empty(),
-        "{:?}",
-        non_finite_texts(&h)
-    );
+    assert_no_non_finite(&h);
 }
 
 #[test]

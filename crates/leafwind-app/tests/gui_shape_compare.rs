@@ -9,7 +9,7 @@ use std::path::PathBuf;
 
 use egui::accesskit::Role;
 use egui_kittest::kittest::Queryable;
-use gui_support::{harness, has_text, non_finite_texts, set_slider};
+use gui_support::{assert_no_non_finite, harness, has_text, non_finite_texts, set_slider};
 use leafwind_app::gui::document::ScenarioDocument;
 use leafwind_app::gui::panels::compare::{
     Better, CompareEntry, CompareInput, CompareTable, best_flags, compute_compare, table_csv,
@@ -55,11 +55,7 @@ fn lobed_leaf_is_below_its_hull_and_the_hand_rule_on_screen() {
     assert!(has_text(&h, "below the hand rule"), "no comparison shown");
     assert!(has_text(&h, "below the convex hull"));
     assert!(has_text(&h, "Effective dimension d_eff"));
-    assert!(
-        non_finite_texts(&h).is_empty(),
-        "{:?}",
-        non_finite_texts(&h)
-    );
+    assert_no_non_finite(&h);
 }
 
 #[test]
@@ -106,11 +102,7 @@ fn an_invalid_parameter_shows_a_field_error_and_cannot_be_used() {
     h.run();
     assert_eq!(h.state().document(), &doc_before);
     assert_eq!(h.state().shape_panel().report(), Some(&shown_before));
-    assert!(
-        non_finite_texts(&h).is_empty(),
-        "{:?}",
-        non_finite_texts(&h)
-    );
+    assert_no_non_finite(&h);
 }
 
 #[test]
@@ -208,21 +200,13 @@ fn compare_two_copies_marks_the_best_with_symbol_and_words() {
     assert!(has_text(&h, "coolest leaf"));
     assert!(has_text(&h, "★"));
     assert!(has_text(&h, "least water use"));
-    assert!(
-        non_finite_texts(&h).is_empty(),
-        "{:?}",
-        non_finite_texts(&h)
-    );
+    assert_no_non_finite(&h);
     // The same table in imperial units.
     h.state_mut()
         .push_command(leafwind_app::gui::commands::Command::ToggleUnits);
     h.run();
     assert!(has_text(&h, "[ft/min]") && has_text(&h, "[°F]"));
-    assert!(
-        non_finite_texts(&h).is_empty(),
-        "{:?}",
-        non_finite_texts(&h)
-    );
+    assert_no_non_finite(&h);
 }
 
 #[test]

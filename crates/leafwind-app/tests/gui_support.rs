@@ -46,3 +46,9 @@ pub fn set_slider(h: &mut Harness<'_, LeafwindApp>, label: &str, value: f64) {
 pub fn has_text(h: &Harness<'_, LeafwindApp>, needle: &str) -> bool {
     h.query_all_by_label_contains(needle).next().is_some()
 }
+
+/// Fails with the offending texts if any NaN or infinity is on screen.
+pub fn assert_no_non_finite(h: &Harness<'_, LeafwindApp>) {
+    let bad = non_finite_texts(h);
+    assert!(bad.is_empty(), "{bad:?}");
+}

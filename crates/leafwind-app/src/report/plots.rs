@@ -7,6 +7,7 @@
 
 use anyhow::anyhow;
 use plotters::coord::Shift;
+use plotters::coord::types::RangedCoordf64;
 use plotters::element::ComposedElement;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
@@ -55,6 +56,65 @@ pub struct BudgetBar {
     pub gain: bool,
     /// Colour of its bar segment.
     pub colour: RGBColor,
+}
+
+/// A line chart of the report on a drawing area, in display units.
+type LineChart<'a, 'b> =
+    ChartContext<'a, SVGBackend<'b>, Cartesian2d<RangedCoordf64, RangedCoordf64>>;
+
+/// The chart frame every line plot of the report shares: caption, margins, axes and grid with
+/// their titles (units included by the caller).
+fn line_chart<'a, 'b>(
+    root: &'a DrawingArea<SVGBackend<'b>, Shift>,
+    caption: &str,
+    x: std::ops::Range<f64>,
+    y: std::ops::Range<f64>,
+    x_title: String,
+    y_title: String,
+) -> anyhow::Result<LineChart<'a, 'b>> {
+    let mut chart = ChartBuilder::on(root)
+        .caption(caption, (FONT, TITLE_PX))
+        .margin(12)
+        .x_label_area_size(48)
+        .y_label_area_size(64)
+        .build_cartesian_2d(x, y)
+        .map_err(err)?;
+    let t = |v: &f64| tick(*v);
+    chart
+        .configure_mesh()
+        .bold_line_style(GRID_BOLD)
+        .light_line_style(GRID_LIGHT)
+        .x_desc(x_title)
+        .y_desc(y_title)
+        .x_label_formatter(&t)
+        .y_label_formatter(&t)
+        .axis_desc_style((FONT, DESC_PX))
+        .label_style((FONT, LABEL_PX))
+        .draw()
+        .map_err(err)?;
+    Ok(chart)
+}
+
+/// The legend box of a line chart, top right.
+fn draw_legend<'a, 'b: 'a>(chart: &mut LineChart<'a, 'b>) -> anyhow::Result<()> {
+    chart
+        .configure_series_labels()
+        .position(SeriesLabelPosition::UpperRight)
+        .background_style(WHITE.mix(0.92))
+        .border_style(RGBColor(120, 120, 120))
+        .label_font((FONT, LEGEND_PX))
+        .draw()
+        .map_err(err)
+}
+
+/// The scenario's own point on a line chart, with its legend entry.
+fn draw_now(chart: &mut LineChart<'_, '_>, point: (f64, f64)) -> anyhow::Result<()> {
+    chart
+        .draw_series(std::iter::once(Circle::new(point, 6, stroke(BLACK, 2))))
+        .map_err(err)?
+        .label("the scenario now")
+        .legend(|(x, y)| Circle::new((x + 11, y), 5, stroke(BLACK, 2)));
+    Ok(())
 }
 
 fn err<E: std::fmt::Display>(e: E) -> anyhow::Error {
@@ -378,29 +438,14 @@ pub fn sweep_diff_svg(
     {
         let root = SVGBackend::with_string(&mut svg, (PLOT_WIDTH, PLOT_HEIGHT)).into_drawing_area();
         root.fill(&WHITE).map_err(err)?;
-        let mut chart = ChartBuilder::on(&root)
-            .caption(
-                "Leaf temperature above the air, by air speed",
-                (FONT, TITLE_PX),
-            )
-            .margin(12)
-            .x_label_area_size(48)
-            .y_label_area_size(64)
-            .build_cartesian_2d(0.0..x_max_d, y0..y1)
-            .map_err(err)?;
-        let t = |v: &f64| tick(*v);
-        chart
-            .configure_mesh()
-            .bold_line_style(GRID_BOLD)
-            .light_line_style(GRID_LIGHT)
-            .x_desc(axis_title("air speed over the leaf", sp, units))
-            .y_desc(axis_title("leaf − air", dq, units))
-            .x_label_formatter(&t)
-            .y_label_formatter(&t)
-            .axis_desc_style((FONT, DESC_PX))
-            .label_style((FONT, LABEL_PX))
-            .draw()
-            .map_err(err)?;
+        let mut chart = line_chart(
+            &root,
+            "Leaf temperature above the air, by air speed",
+            0.0..x_max_d,
+            y0..y1,
+            axis_title("air speed over the leaf", sp, units),
+            axis_title("leaf − air", dq, units),
+        )?;
         // The air temperature itself (difference zero).
         chart
             .draw_series(LineSeries::new(
@@ -473,21 +518,12 @@ pub fn sweep_diff_svg(
         }
         let (u_now, d_now) = (leaf.case.air.speed_m_s, leaf.solution.leaf_air_diff_k);
         if u_now <= x_max && d_now.is_finite() {
-            let p = (sp.to_display(u_now, units), dq.to_display(d_now, units));
-            chart
-                .draw_series(std::iter::once(Circle::new(p, 6, stroke(BLACK, 2))))
-                .map_err(err)?
-                .label("the scenario now")
-                .legend(|(x, y)| Circle::new((x + 11, y), 5, stroke(BLACK, 2)));
+            draw_now(
+                &mut chart,
+                (sp.to_display(u_now, units), dq.to_display(d_now, units)),
+            )?;
         }
-        chart
-            .configure_series_labels()
-            .position(SeriesLabelPosition::UpperRight)
-            .background_style(WHITE.mix(0.92))
-            .border_style(RGBColor(120, 120, 120))
-            .label_font((FONT, LEGEND_PX))
-            .draw()
-            .map_err(err)?;
+        draw_legend(&mut chart)?;
         root.present().map_err(err)?;
     }
     Ok(finish(
@@ -547,26 +583,14 @@ pub fn sweep_thickness_svg(
     {
         let root = SVGBackend::with_string(&mut svg, (PLOT_WIDTH, PLOT_HEIGHT)).into_drawing_area();
         root.fill(&WHITE).map_err(err)?;
-        let mut chart = ChartBuilder::on(&root)
-            .caption("Boundary-layer thickness, by air speed", (FONT, TITLE_PX))
-            .margin(12)
-            .x_label_area_size(48)
-            .y_label_area_size(64)
-            .build_cartesian_2d(0.0..x_max_d, 0.0..y_top)
-            .map_err(err)?;
-        let t = |v: &f64| tick(*v);
-        chart
-            .configure_mesh()
-            .bold_line_style(GRID_BOLD)
-            .light_line_style(GRID_LIGHT)
-            .x_desc(axis_title("air speed over the leaf", sp, units))
-            .y_desc(axis_title("99 % thickness at the trailing edge", th, units))
-            .x_label_formatter(&t)
-            .y_label_formatter(&t)
-            .axis_desc_style((FONT, DESC_PX))
-            .label_style((FONT, LABEL_PX))
-            .draw()
-            .map_err(err)?;
+        let mut chart = line_chart(
+            &root,
+            "Boundary-layer thickness, by air speed",
+            0.0..x_max_d,
+            0.0..y_top,
+            axis_title("air speed over the leaf", sp, units),
+            axis_title("99 % thickness at the trailing edge", th, units),
+        )?;
         for (i, (c, pts)) in sweep.curves.iter().zip(&curves).enumerate() {
             let colour = CURVE_COLOURS[i % CURVE_COLOURS.len()];
             let width = if i == 0 { 3 } else { 2 };
@@ -582,21 +606,10 @@ pub fn sweep_thickness_svg(
         if let Some(d) = d_now.filter(|_| u_now <= x_max) {
             let p = (sp.to_display(u_now, units), th.to_display(d, units));
             if p.1 <= y_top && p.1.is_finite() {
-                chart
-                    .draw_series(std::iter::once(Circle::new(p, 6, stroke(BLACK, 2))))
-                    .map_err(err)?
-                    .label("the scenario now")
-                    .legend(|(x, y)| Circle::new((x + 11, y), 5, stroke(BLACK, 2)));
+                draw_now(&mut chart, p)?;
             }
         }
-        chart
-            .configure_series_labels()
-            .position(SeriesLabelPosition::UpperRight)
-            .background_style(WHITE.mix(0.92))
-            .border_style(RGBColor(120, 120, 120))
-            .label_font((FONT, LEGEND_PX))
-            .draw()
-            .map_err(err)?;
+        draw_legend(&mut chart)?;
         root.present().map_err(err)?;
     }
     Ok(finish(
@@ -876,26 +889,14 @@ pub fn line_plot_svg(p: &LinePlot) -> anyhow::Result<String> {
     {
         let root = SVGBackend::with_string(&mut svg, (PLOT_WIDTH, PLOT_HEIGHT)).into_drawing_area();
         root.fill(&WHITE).map_err(err)?;
-        let mut chart = ChartBuilder::on(&root)
-            .caption(&p.title, (FONT, TITLE_PX))
-            .margin(12)
-            .x_label_area_size(48)
-            .y_label_area_size(64)
-            .build_cartesian_2d(x0..x1, y0..y1)
-            .map_err(err)?;
-        let t = |v: &f64| tick(*v);
-        chart
-            .configure_mesh()
-            .bold_line_style(GRID_BOLD)
-            .light_line_style(GRID_LIGHT)
-            .x_desc(p.x_title.clone())
-            .y_desc(p.y_title.clone())
-            .x_label_formatter(&t)
-            .y_label_formatter(&t)
-            .axis_desc_style((FONT, DESC_PX))
-            .label_style((FONT, LABEL_PX))
-            .draw()
-            .map_err(err)?;
+        let mut chart = line_chart(
+            &root,
+            &p.title,
+            x0..x1,
+            y0..y1,
+            p.x_title.clone(),
+            p.y_title.clone(),
+        )?;
         for Series {
             name,
             points,
@@ -927,14 +928,7 @@ pub fn line_plot_svg(p: &LinePlot) -> anyhow::Result<String> {
                 });
             }
         }
-        chart
-            .configure_series_labels()
-            .position(SeriesLabelPosition::UpperRight)
-            .background_style(WHITE.mix(0.92))
-            .border_style(RGBColor(120, 120, 120))
-            .label_font((FONT, LEGEND_PX))
-            .draw()
-            .map_err(err)?;
+        draw_legend(&mut chart)?;
         root.present().map_err(err)?;
     }
     Ok(finish(svg, &p.label))

@@ -1,4 +1,5 @@
-//! Speed of the canopy engine: one 20-layer canopy solve, and a year of hourly weather (8760 hours,
+//! Speed of the canopy engine: one 20-layer canopy solve, one greenhouse balance and the least
+//! ventilation search over it, and a year of hourly weather (8760 hours,
 //! invented clear-sky design days) over a 20-layer open-field canopy — on all cores through
 //! `design_day::run_hours` and on one thread. Target: the year in ≤ 0.5 s. Figures: DEVELOPERS.md.
 
@@ -10,7 +11,9 @@ use leafwind_physics::design_day::{
     DayHumidity, DesignDay, DiurnalShape, HourWeather, SeriesCase, design_day_weather,
     evaluate_hour, run_hours,
 };
+use leafwind_physics::greenhouse::{GreenhouseCase, solve_greenhouse};
 use leafwind_physics::sun::{DateTime, days_in_month};
+use leafwind_physics::ventilation::{VentilationTarget, least_ventilation};
 
 /// An invented year: one design day per date, warmest in July.
 fn invented_year(case: &SeriesCase) -> Vec<HourWeather> {
@@ -39,6 +42,19 @@ fn bench_canopy(c: &mut Criterion) {
     let case = CanopyCase::default();
     c.bench_function("canopy, 20 layers, one solve", |b| {
         b.iter(|| solve_canopy(black_box(&case)).expect("solves"))
+    });
+    let house = GreenhouseCase::default();
+    c.bench_function("greenhouse balance, 20 layers, one solve", |b| {
+        b.iter(|| solve_greenhouse(black_box(&house)).expect("solves"))
+    });
+    c.bench_function("least ventilation for a 4 K rise, 20 layers", |b| {
+        b.iter(|| {
+            least_ventilation(
+                black_box(&house),
+                VentilationTarget::InsideRise { rise_k: 4.0 },
+            )
+            .expect("solves")
+        })
     });
     let series = SeriesCase::default();
     assert_eq!(series.structure.layers, 20);

@@ -17,6 +17,10 @@
 //! The crop's transpiration cooling thus enters twice, as it does in a real house: it lowers H_c
 //! (the leaves run cooler) and it humidifies the air the fans must remove.
 //!
+//! The least ventilation rate for a rise or for the hottest leaf, and the standard's factor method
+//! beside it, are in [`crate::ventilation`]; `tests/ventilation.rs` checks this balance against
+//! that method.
+//!
 //! **Cautions.** A steady balance says nothing about the hours it takes to get there, nor about
 //! people: a greenhouse that is hot for the crop is dangerous for workers. Fans, vents and their
 //! electrical installation must follow local codes and be designed and installed by licensed

@@ -17,6 +17,15 @@
 //! | [`energy_balance`] | the exact solve and the linearised form |
 //! | [`required_wind`] | the least air speed for a temperature limit |
 //! | [`solver`] | bracketed safeguarded Newton and its report |
+//! | [`grid`] | leaf temperature over a wind × size grid |
+//! | [`shape`] | leaf outlines, effective dimension, cylinders and spheres |
+//! | [`canopy`] | Beer's-law layers, sunlit and shaded leaves, the hottest leaf |
+//! | [`sun`] | sun position, clear-sky shortwave, beam/diffuse split |
+//! | [`greenhouse`] | cover, shade and the steady ventilation balance; sizing answers |
+//! | [`ventilation`] | the least ventilation rate; the standard's factor method |
+//! | [`crops`] | crop heat limits |
+//! | [`design_day`], [`weather`] | hourly design days and weather files |
+//! | [`fans`], [`condensation`], [`cooling`] | air from fans, night dew, cooling options |
 //!
 //! Units: SI inside (K for absolute temperatures in formulas, °C at the component boundary, K for
 //! temperature differences, named `_diff_k`); every name carries its unit.
@@ -42,6 +51,7 @@ pub mod crops;
 pub mod design_day;
 pub mod greenhouse;
 pub mod sun;
+pub mod ventilation;
 pub mod weather;
 // Air movement, night condensation and cooling options.
 pub mod condensation;

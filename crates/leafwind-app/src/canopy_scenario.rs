@@ -23,6 +23,7 @@ use leafwind_physics::greenhouse::{
     self, Cover, GreenhouseCase, InsideAir, Outside, ShadeAnswer, VENTILATION_DEFAULT_M3_M2_S,
 };
 use leafwind_physics::sun::{self, DateTime, HorizontalShortwave, Site};
+use leafwind_physics::ventilation::{self, VentilationCheck};
 use leafwind_physics::weather;
 use leafwind_physics::{Humidity, LeafCase};
 use serde::{Deserialize, Serialize};
@@ -185,6 +186,8 @@ pub struct CanopyRun {
     pub speed: SpeedAnswer,
     /// Least shade fraction (under cover only).
     pub shade: Option<ShadeAnswer>,
+    /// Least ventilation rates and the standard's factor method (under cover only).
+    pub ventilation: Option<VentilationRun>,
     /// Hour by hour over the design day, if the section has one.
     pub design_day: Option<HourlySeries>,
     /// Hour by hour over the weather file, if the section names one, with its bad rows.
@@ -194,6 +197,32 @@ pub struct CanopyRun {
     pub dew: Option<DewSeries>,
     /// The cooling and shading options side by side (under cover only).
     pub cooling: Option<CoolingTable>,
+}
+
+/// The ventilation answers and what they rest on.
+#[derive(Debug, Clone, Copy)]
+pub struct VentilationRun {
+    /// The least rates and the factor method.
+    pub check: VentilationCheck,
+    /// Outside air the balance starts from \[°C\].
+    pub outside_air_temp_c: f64,
+    /// Whether the scenario's other answers take the inside air as measured (the ventilation
+    /// answers always come from the balance with the outside air).
+    pub inside_as_measured: bool,
+}
+
+impl VentilationRun {
+    /// What the answers rest on, for a parenthesis; `outside` is the outside air as shown.
+    #[must_use]
+    pub fn basis(&self, outside: &str) -> String {
+        if self.inside_as_measured {
+            format!(
+                "from the ventilation balance with the outside air at {outside}; the other answers take the inside air as measured"
+            )
+        } else {
+            format!("from the ventilation balance with the outside air at {outside}")
+        }
+    }
 }
 
 /// Cooling and shading options compared (engine's `cooling` module).
@@ -219,6 +248,25 @@ impl CanopyRun {
         match &self.shade {
             Some(s) => s.sentence(),
             None => "Shade sizing needs a greenhouse or shade-house cover in the scenario; this crop is in the open field.".to_owned(),
+        }
+    }
+
+    /// The least ventilation rate for the hottest leaf in words, or why there is none.
+    #[must_use]
+    pub fn ventilation_reason(&self) -> String {
+        match &self.ventilation {
+            Some(v) => {
+                let basis = v.basis(&format!("{:.1} °C", v.outside_air_temp_c));
+                let mut chars = basis.chars();
+                let first = chars.next().map(|c| c.to_uppercase().to_string());
+                format!(
+                    "{} {}{}.",
+                    v.check.for_leaf.sentence(),
+                    first.unwrap_or_default(),
+                    chars.as_str()
+                )
+            }
+            None => "Ventilation sizing needs a greenhouse cover in the scenario; this crop is in the open field.".to_owned(),
         }
     }
 }
@@ -315,7 +363,7 @@ impl CanopySection {
         let (pos, shortwave) = self.light()?;
         let elevation = pos.elevation_rad.max(0.0);
         let target_limit = limit.limit_c;
-        let (canopy, inside, speed, shade) = match &self.greenhouse {
+        let (canopy, inside, speed, shade, ventilation) = match &self.greenhouse {
             None => {
                 let cc = CanopyCase {
                     air: case.air,
@@ -336,18 +384,24 @@ impl CanopySection {
                     margin_k,
                     self.max_search_speed_m_s,
                 )?;
-                (sol, None, speed, None)
+                (sol, None, speed, None, None)
             }
             Some(g) => {
                 let gc = self.greenhouse_case(g, case, elevation, shortwave, target_limit);
                 let sol = greenhouse::solve_greenhouse(&gc)?;
                 let sizing =
                     greenhouse::size(&gc, target_limit, margin_k, self.max_search_speed_m_s)?;
+                let ventilation = VentilationRun {
+                    check: ventilation::design_check(&gc, target_limit, margin_k)?,
+                    outside_air_temp_c: g.outside_air_temp_c,
+                    inside_as_measured: matches!(g.inside, InsideMode::ScenarioAir),
+                };
                 (
                     sol.canopy,
                     Some(sol.inside_air_temp_c),
                     sizing.speed,
                     Some(sizing.shade),
+                    Some(ventilation),
                 )
             }
         };
@@ -394,6 +448,7 @@ impl CanopySection {
             canopy,
             speed,
             shade,
+            ventilation,
             design_day,
             weather,
             dew,

@@ -60,6 +60,10 @@ fn open_field_json_has_the_documented_keys_and_a_design_day() {
         "required_wind_reason",
         "required_shade_fraction",
         "required_shade_fraction_reason",
+        "required_ventilation_m3_m2_s",
+        "required_ventilation_reason",
+        "ventilation_for_4_k_rise_m3_m2_s",
+        "standard_factor_rate_m3_m2_s",
         "layers",
         "design_day",
     ] {
@@ -73,6 +77,15 @@ fn open_field_json_has_the_documented_keys_and_a_design_day() {
             .as_str()
             .unwrap()
             .contains("greenhouse")
+    );
+    // Nor a ventilation answer.
+    assert!(v["required_ventilation_m3_m2_s"].is_null());
+    assert!(v["standard_factor_rate_m3_m2_s"].is_null());
+    assert!(
+        v["required_ventilation_reason"]
+            .as_str()
+            .unwrap()
+            .contains("open field")
     );
     let day = &v["design_day"];
     let steps = day["steps"].as_array().unwrap();
@@ -133,6 +146,16 @@ fn greenhouse_gives_a_shade_answer() {
     };
     assert!(options.len() >= 5);
     assert!(hottest("shade screen") <= hottest("none"));
+    // The ventilation answers: a rate for the hottest leaf in words, the rate for a 4 K rise from
+    // the balance, and the standard's factor method (ASABE EP406, from memory) beside it.
+    let reason = v["required_ventilation_reason"].as_str().unwrap();
+    assert!(reason.contains("From the ventilation balance"), "{reason}");
+    if let Some(rate) = v["required_ventilation_m3_m2_s"].as_f64() {
+        assert!(rate > 0.0 && rate <= 0.5, "{rate}");
+    }
+    let factor = v["standard_factor_rate_m3_m2_s"].as_f64().unwrap();
+    assert!(factor > 0.0 && factor < 0.2, "{factor}");
+    assert!(v["ventilation_for_4_k_rise_m3_m2_s"].as_f64().unwrap() > 0.0);
 }
 
 #[test]

@@ -284,6 +284,43 @@ fn fan_airflow_is_typed_in_cfm_when_imperial() {
     assert_no_non_finite(&h);
 }
 
+/// The ventilated glasshouse: the least ventilation answer and the standard's factor method are
+/// shown; in imperial units the rate is typed and read in cfm per ft² (8 cfm/ft² = 0.040 64 m³/s
+/// per m², exact foot).
+#[test]
+fn ventilation_is_answered_and_typed_in_cfm_per_square_foot_when_imperial() {
+    let mut doc = glasshouse();
+    if let Some(g) = doc.canopy.as_mut().and_then(|c| c.greenhouse.as_mut()) {
+        g.inside = leafwind_app::canopy_scenario::InsideMode::Ventilated { rate_m3_m2_s: 0.03 };
+    }
+    let mut h = harness(doc);
+    h.state_mut().set_tab(PlotTab::Canopy);
+    h.run();
+    assert!(has_text(&h, "Least ventilation"));
+    assert!(has_text(&h, "factor method"));
+    assert!(has_text(&h, "m³/s per m²"));
+    assert_no_non_finite(&h);
+    h.state_mut().push_command(Command::ToggleUnits);
+    h.run();
+    assert!(has_text(&h, "cfm/ft²"));
+    set_slider(&mut h, "Ventilation rate", 8.0);
+    let rate = match h
+        .state()
+        .document()
+        .canopy
+        .as_ref()
+        .and_then(|c| c.greenhouse.as_ref())
+        .map(|g| g.inside)
+    {
+        Some(leafwind_app::canopy_scenario::InsideMode::Ventilated { rate_m3_m2_s }) => {
+            rate_m3_m2_s
+        }
+        other => panic!("{other:?}"),
+    };
+    assert!((rate - 0.040_64).abs() < 1e-5, "{rate}");
+    assert_no_non_finite(&h);
+}
+
 #[test]
 fn the_open_field_example_canopy_has_no_shade_answer_and_says_why() {
     let (_, text) = leafwind_app::gui::document::EXAMPLES

@@ -117,6 +117,17 @@ pub struct CanopyRecord {
     pub required_shade_fraction: Option<f64>,
     /// The shade answer in words.
     pub required_shade_fraction_reason: String,
+    /// Least ventilation rate that keeps the hottest leaf under the limit less the margin
+    /// \[m³ s⁻¹ per m² floor\]; null when there is none (or no cover).
+    pub required_ventilation_m3_m2_s: Option<f64>,
+    /// The ventilation answer in words.
+    pub required_ventilation_reason: String,
+    /// Least ventilation rate that holds the inside air within 4 K of the outside air, from the
+    /// balance \[m³ s⁻¹ m⁻²\]; null when there is none (or no cover).
+    pub ventilation_for_4_k_rise_m3_m2_s: Option<f64>,
+    /// The ventilation standard's factor method for a 4 K rise at this site and light (ASABE
+    /// EP406, from memory) \[m³ s⁻¹ m⁻²\]; null with no cover.
+    pub standard_factor_rate_m3_m2_s: Option<f64>,
     /// The layers, top first.
     pub layers: Vec<LayerRecord>,
     /// Hour by hour over the design day.
@@ -213,6 +224,19 @@ impl CanopyRecord {
             required_wind_reason: run.speed.sentence(),
             required_shade_fraction: run.shade.as_ref().and_then(|s| s.fraction()),
             required_shade_fraction_reason: run.shade_reason(),
+            required_ventilation_m3_m2_s: run
+                .ventilation
+                .as_ref()
+                .and_then(|v| v.check.for_leaf.rate_m3_m2_s()),
+            required_ventilation_reason: run.ventilation_reason(),
+            ventilation_for_4_k_rise_m3_m2_s: run
+                .ventilation
+                .as_ref()
+                .and_then(|v| v.check.for_reference_rise.rate_m3_m2_s()),
+            standard_factor_rate_m3_m2_s: run
+                .ventilation
+                .as_ref()
+                .map(|v| v.check.factor.rate_m3_m2_s),
             layers: run
                 .canopy
                 .layers
@@ -332,6 +356,16 @@ pub fn run(args: &CanopyArgs, out: &mut impl Write) -> Result<ExitCode> {
     )?;
     writeln!(out, "Air speed: {}", r.required_wind_reason)?;
     writeln!(out, "Shade: {}", r.required_shade_fraction_reason)?;
+    writeln!(out, "Ventilation: {}", r.required_ventilation_reason)?;
+    if let (Some(rise), Some(factor)) = (
+        r.ventilation_for_4_k_rise_m3_m2_s,
+        r.standard_factor_rate_m3_m2_s,
+    ) {
+        writeln!(
+            out,
+            "Ventilation for a 4 K rise: {rise:.3} m³/s per m² from the balance; the standard's factor method (EP406, from memory) asks for {factor:.3}."
+        )?;
+    }
     writeln!(
         out,
         "{:>5} {:>8} {:>9} {:>9} {:>10} {:>10}",

@@ -62,6 +62,8 @@ pub enum Quantity {
     Pressure,
     /// Site altitude; SI m (imperial ft).
     Altitude,
+    /// Ventilation rate per floor area; SI m³/s per m² (imperial cfm per ft², the fan trade's).
+    VentilationRate,
     /// Quantities shown alike in both systems (W/m², mol/m²/s, kPa of VPD, ratios).
     Same(&'static str),
 }
@@ -84,6 +86,8 @@ impl Quantity {
             (Pressure, UnitSystem::Imperial) => "inHg",
             (Altitude, UnitSystem::Si) => "m",
             (Altitude, UnitSystem::Imperial) => "ft",
+            (VentilationRate, UnitSystem::Si) => "m³/s per m²",
+            (VentilationRate, UnitSystem::Imperial) => "cfm/ft²",
             (Same(u), _) => u,
         }
     }
@@ -101,6 +105,7 @@ impl Quantity {
             (LeafSize | Thickness | Position, UnitSystem::Imperial) => si * IN_PER_M,
             (Pressure, UnitSystem::Imperial) => si / KPA_PER_INHG,
             (Altitude, UnitSystem::Imperial) => si * FT_PER_M,
+            (VentilationRate, UnitSystem::Imperial) => si * FT_PER_M * 60.0,
         }
     }
 
@@ -117,6 +122,7 @@ impl Quantity {
             (LeafSize | Thickness | Position, UnitSystem::Imperial) => shown / IN_PER_M,
             (Pressure, UnitSystem::Imperial) => shown * KPA_PER_INHG,
             (Altitude, UnitSystem::Imperial) => shown / FT_PER_M,
+            (VentilationRate, UnitSystem::Imperial) => shown / (FT_PER_M * 60.0),
         }
     }
 
@@ -135,6 +141,8 @@ impl Quantity {
             (Pressure, UnitSystem::Si) => 1,
             (Pressure, UnitSystem::Imperial) => 2,
             (Altitude, _) => 0,
+            (VentilationRate, UnitSystem::Si) => 3,
+            (VentilationRate, UnitSystem::Imperial) => 1,
             (Same(_), _) => 2,
         }
     }
@@ -217,6 +225,7 @@ mod tests {
             Quantity::Thickness,
             Quantity::Pressure,
             Quantity::Altitude,
+            Quantity::VentilationRate,
             Quantity::Same("W/m²"),
         ];
         for q in all {
@@ -237,6 +246,8 @@ mod tests {
         assert!((Quantity::TempDiff.to_display(10.0, im) - 18.0).abs() < 1e-12);
         assert!((Quantity::Speed.to_display(1.0, im) - 196.850_393_7).abs() < 1e-6);
         assert!((Quantity::LeafSize.to_display(0.0254, im) - 1.0).abs() < 1e-12);
+        // 8 cfm per ft² = 8 × 0.3048³/60 m³/s per 0.3048² m² = 0.040 64 m³/s per m² (exact foot).
+        assert!((Quantity::VentilationRate.from_display(8.0, im) - 0.040_64).abs() < 1e-5);
         // Standard atmosphere 101.325 kPa = 29.92 inHg (from memory).
         assert!((Quantity::Pressure.to_display(101.325, im) - 29.92).abs() < 0.005);
     }

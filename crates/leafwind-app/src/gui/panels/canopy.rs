@@ -18,7 +18,7 @@ use leafwind_physics::case::AIR_SPEED_RANGE_M_S;
 use leafwind_physics::crops::{CROP_HEAT_LIMITS, HeatLimit, LimitKind};
 use leafwind_physics::design_day::{DayHumidity, DesignDay, HourlySeries};
 
-use crate::canopy_scenario::CoolingTable;
+use crate::canopy_scenario::{CoolingTable, VentilationRun};
 use leafwind_physics::error::ValidRange;
 use leafwind_physics::greenhouse::{
     CoverTemperature, HEAT_LOSS_RANGE_W_M2_K, SHADE_FRACTION_RANGE, ShadeAnswer,
@@ -28,6 +28,7 @@ use leafwind_physics::radiation::{SHORTWAVE_RANGE_W_M2, SURFACE_TEMP_RANGE_C};
 use leafwind_physics::sun::{
     DateTime, LATITUDE_RANGE_DEG, LONGITUDE_RANGE_DEG, UTC_OFFSET_RANGE_H, days_in_month,
 };
+use leafwind_physics::ventilation::{self, VentilationAnswer, VentilationTarget};
 use leafwind_physics::{Humidity, LeafCase};
 
 use crate::canopy_scenario::{
@@ -520,6 +521,68 @@ pub fn shade_sentence(a: Option<&ShadeAnswer>, units: UnitSystem) -> String {
     }
 }
 
+/// The least ventilation rate for the hottest leaf, and the rate for a 4 K (7 °F) rise beside the
+/// standard's factor method, in two sentences (or why there are none).
+#[must_use]
+pub fn ventilation_sentence(run: Option<&VentilationRun>, units: UnitSystem) -> String {
+    let Some(run) = run else {
+        return "Least ventilation: ventilation sizing needs a greenhouse cover; this crop is in the open field.".to_owned();
+    };
+    let v = &run.check;
+    let t = |c: f64| show(Quantity::Temperature, c, units);
+    let r = |x: f64| show(Quantity::VentilationRate, x, units);
+    let first = match v.for_leaf {
+        VentilationAnswer::AtLeastRate { at, target } => format!(
+            "even {} keeps the hottest leaf at {} (target {}).",
+            r(at.rate_m3_m2_s),
+            t(at.hottest_leaf_temp_c),
+            t(target_c(target))
+        ),
+        VentilationAnswer::Rate { at, target } => format!(
+            "at least {} keeps the hottest leaf at {} (target {}), with the inside air at {}.",
+            r(at.rate_m3_m2_s),
+            t(at.hottest_leaf_temp_c),
+            t(target_c(target)),
+            t(at.inside_air_temp_c)
+        ),
+        VentilationAnswer::Unreachable { at_most, target } => format!(
+            "no rate can do it — even at {} the hottest leaf runs at {} with the inside air at {}, above the target of {}. Shade, evaporative cooling or more air over the crop must do the rest.",
+            r(at_most.rate_m3_m2_s),
+            t(at_most.hottest_leaf_temp_c),
+            t(at_most.inside_air_temp_c),
+            t(target_c(target))
+        ),
+    };
+    let rise = show(
+        Quantity::TempDiff,
+        ventilation::FACTOR_REFERENCE_RISE_K,
+        units,
+    );
+    let second = match v.for_reference_rise.rate_m3_m2_s() {
+        Some(b) => format!(
+            "To hold the inside air within {rise} of outside: {} from the balance for this crop; the ventilation standard's factor method asks for {} (ASABE EP406 factors, from memory).",
+            r(b),
+            r(v.factor.rate_m3_m2_s)
+        ),
+        None => format!(
+            "No rate holds the inside air within {rise} of outside; the ventilation standard's factor method asks for {} (ASABE EP406 factors, from memory).",
+            r(v.factor.rate_m3_m2_s)
+        ),
+    };
+    format!(
+        "Least ventilation ({}): {first} {second}",
+        run.basis(&t(run.outside_air_temp_c))
+    )
+}
+
+/// The leaf temperature a ventilation target aims at \[°C\] (for a rise target: none, shown as –).
+fn target_c(target: VentilationTarget) -> f64 {
+    match target {
+        VentilationTarget::HottestLeaf { limit_c, margin_k } => limit_c - margin_k,
+        VentilationTarget::InsideRise { .. } => f64::NAN,
+    }
+}
+
 // ---------------------------------------------------------------------------------------------
 // The panel
 
@@ -650,6 +713,7 @@ impl CanopyPanel {
             .strong(),
         );
         ui.label(RichText::new(shade_sentence(run.shade.as_ref(), units)).strong());
+        ui.label(RichText::new(ventilation_sentence(run.ventilation.as_ref(), units)).strong());
         ui.add_space(4.0);
         let margin = h.margin_k.unwrap_or(run.limit.limit_c - h.leaf_temp_c);
         let status = LimitStatus::of(h.leaf_temp_c, run.limit.limit_c, run.margin_k);
@@ -1365,12 +1429,12 @@ fn greenhouse_inputs(ui: &mut Ui, g: &mut GreenhouseSection, case: &LeafCase, un
                 ui,
                 &Field {
                     label: "Ventilation rate",
-                    quantity: same("m³/s per m²"),
+                    quantity: Quantity::VentilationRate,
                     range: VENTILATION_RANGE_M3_M2_S,
                     slider: (0.001, 0.1),
                     log: true,
-                    decimals: Some(3),
-                    tooltip: "Outside air exchanged per floor area. Summer cooling about 0.04–0.05 m³/s per m² of floor (ASHRAE; from memory).",
+                    decimals: None,
+                    tooltip: "Outside air the exhaust fans or vents exchange, per floor area: the fans' total rated flow divided by the floor area. Summer cooling designs use about 0.04–0.05 m³/s per m² of floor (8–10 cfm per ft²; ASHRAE, ASABE EP406; from memory).",
                 },
                 rate_m3_m2_s,
                 units,

@@ -199,6 +199,29 @@ pub struct CanopyRun {
     pub cooling: Option<CoolingTable>,
 }
 
+/// The sizing answers at one moment: least canopy-top air speed, and under cover the least shade
+/// and the ventilation answers.
+#[derive(Debug, Clone)]
+pub struct CanopySizing {
+    /// The limit used.
+    pub limit: HeatLimit,
+    /// Margin kept below it \[K\].
+    pub margin_k: f64,
+    /// Least canopy-top air speed for the hottest leaf.
+    pub speed: SpeedAnswer,
+    /// Least shade fraction (under cover only).
+    pub shade: Option<ShadeAnswer>,
+    /// Least ventilation rates and the standard's factor method (under cover only).
+    pub ventilation: Option<VentilationRun>,
+}
+
+/// The canopy profile and the sizing answers at the section's moment.
+struct Moment {
+    canopy: CanopySolution,
+    inside_air_temp_c: Option<f64>,
+    sizing: CanopySizing,
+}
+
 /// The ventilation answers and what they rest on.
 #[derive(Debug, Clone, Copy)]
 pub struct VentilationRun {
@@ -362,49 +385,14 @@ impl CanopySection {
         let limit = self.limit(own_limit_c)?;
         let (pos, shortwave) = self.light()?;
         let elevation = pos.elevation_rad.max(0.0);
-        let target_limit = limit.limit_c;
-        let (canopy, inside, speed, shade, ventilation) = match &self.greenhouse {
-            None => {
-                let cc = CanopyCase {
-                    air: case.air,
-                    leaf: case.leaf,
-                    upper_view: case.surroundings.upper_view,
-                    light: CanopyLight {
-                        sun_elevation_rad: elevation,
-                        shortwave,
-                    },
-                    structure: self.structure,
-                    critical_reynolds: case.critical_reynolds,
-                    limit_c: Some(target_limit),
-                };
-                let sol = canopy::solve_canopy(&cc)?;
-                let speed = canopy::least_top_speed(
-                    &cc,
-                    target_limit,
-                    margin_k,
-                    self.max_search_speed_m_s,
-                )?;
-                (sol, None, speed, None, None)
-            }
-            Some(g) => {
-                let gc = self.greenhouse_case(g, case, elevation, shortwave, target_limit);
-                let sol = greenhouse::solve_greenhouse(&gc)?;
-                let sizing =
-                    greenhouse::size(&gc, target_limit, margin_k, self.max_search_speed_m_s)?;
-                let ventilation = VentilationRun {
-                    check: ventilation::design_check(&gc, target_limit, margin_k)?,
-                    outside_air_temp_c: g.outside_air_temp_c,
-                    inside_as_measured: matches!(g.inside, InsideMode::ScenarioAir),
-                };
-                (
-                    sol.canopy,
-                    Some(sol.inside_air_temp_c),
-                    sizing.speed,
-                    Some(sizing.shade),
-                    Some(ventilation),
-                )
-            }
-        };
+        let moment = self.moment(case, &limit, margin_k, elevation, shortwave)?;
+        let (canopy, inside) = (moment.canopy, moment.inside_air_temp_c);
+        let CanopySizing {
+            speed,
+            shade,
+            ventilation,
+            ..
+        } = moment.sizing;
         let series_case = self.series_case(case, &limit);
         let design_day = match &self.design_day {
             Some(day) => Some(design_day::run(day, &series_case)?),
@@ -453,6 +441,89 @@ impl CanopySection {
             weather,
             dew,
             cooling,
+        })
+    }
+
+    /// The sizing answers at the section's moment, without the design day, weather or options
+    /// (what the grower report shows).
+    ///
+    /// # Errors
+    /// As [`CanopySection::run`].
+    pub fn sizing(&self, case: &LeafCase, own_limit_c: f64, margin_k: f64) -> Result<CanopySizing> {
+        let limit = self.limit(own_limit_c)?;
+        let (pos, shortwave) = self.light()?;
+        Ok(self
+            .moment(
+                case,
+                &limit,
+                margin_k,
+                pos.elevation_rad.max(0.0),
+                shortwave,
+            )?
+            .sizing)
+    }
+
+    /// The profile and the sizing answers at the section's moment.
+    fn moment(
+        &self,
+        case: &LeafCase,
+        limit: &HeatLimit,
+        margin_k: f64,
+        elevation: f64,
+        shortwave: HorizontalShortwave,
+    ) -> Result<Moment> {
+        let (canopy, inside_air_temp_c, speed, shade, ventilation) = match &self.greenhouse {
+            None => {
+                let cc = CanopyCase {
+                    air: case.air,
+                    leaf: case.leaf,
+                    upper_view: case.surroundings.upper_view,
+                    light: CanopyLight {
+                        sun_elevation_rad: elevation,
+                        shortwave,
+                    },
+                    structure: self.structure,
+                    critical_reynolds: case.critical_reynolds,
+                    limit_c: Some(limit.limit_c),
+                };
+                let sol = canopy::solve_canopy(&cc)?;
+                let speed = canopy::least_top_speed(
+                    &cc,
+                    limit.limit_c,
+                    margin_k,
+                    self.max_search_speed_m_s,
+                )?;
+                (sol, None, speed, None, None)
+            }
+            Some(g) => {
+                let gc = self.greenhouse_case(g, case, elevation, shortwave, limit.limit_c);
+                let sol = greenhouse::solve_greenhouse(&gc)?;
+                let sizing =
+                    greenhouse::size(&gc, limit.limit_c, margin_k, self.max_search_speed_m_s)?;
+                let ventilation = VentilationRun {
+                    check: ventilation::design_check(&gc, limit.limit_c, margin_k)?,
+                    outside_air_temp_c: g.outside_air_temp_c,
+                    inside_as_measured: matches!(g.inside, InsideMode::ScenarioAir),
+                };
+                (
+                    sol.canopy,
+                    Some(sol.inside_air_temp_c),
+                    sizing.speed,
+                    Some(sizing.shade),
+                    Some(ventilation),
+                )
+            }
+        };
+        Ok(Moment {
+            canopy,
+            inside_air_temp_c,
+            sizing: CanopySizing {
+                limit: limit.clone(),
+                margin_k,
+                speed,
+                shade,
+                ventilation,
+            },
         })
     }
 

@@ -12,7 +12,7 @@ use std::path::{Path, PathBuf};
 use leafwind_app::gui::document::ScenarioDocument;
 use leafwind_app::gui::units::{Quantity, UnitSystem};
 use leafwind_app::report::{
-    HTML_FILE, ReportExtras, build_report, write_report, write_report_with,
+    HTML_FILE, ReportExtras, build_report, extras_for, write_report, write_report_with,
 };
 use leafwind_physics::canopy::{CanopyCase, solve_canopy};
 use leafwind_physics::design_day::{DesignDay, SeriesCase, run};
@@ -372,6 +372,7 @@ fn optional_sections_appear_with_their_engine_inputs() {
     let extras = ReportExtras {
         canopy: Some(canopy),
         design_day: Some((DesignDay::default(), SeriesCase::default())),
+        sizing: None,
     };
     let dir = out_dir("extras");
     let files = write_report_with(doc, &extras, &dir, UnitSystem::Si).unwrap();
@@ -414,6 +415,52 @@ fn optional_sections_appear_with_their_engine_inputs() {
     assert!(sources.contains("Cionco") && sources.contains("Michalsky"));
 }
 
+/// A ventilated glasshouse: the report's canopy sizing section states the least canopy-top air
+/// speed, the least shade and the least ventilation rate with the numbers of the scenario's canopy
+/// run, in ft/min and cfm/ft² when imperial, with the installation caution.
+#[test]
+fn the_glasshouse_report_has_the_canopy_sizing_answers_of_the_canopy_run() {
+    let (_, mut doc) = scenarios()
+        .into_iter()
+        .find(|(n, d)| n.contains("glasshouse") && d.canopy.is_some())
+        .expect("the glasshouse example");
+    if let Some(g) = doc.canopy.as_mut().and_then(|c| c.greenhouse.as_mut()) {
+        g.inside = leafwind_app::canopy_scenario::InsideMode::Ventilated { rate_m3_m2_s: 0.03 };
+    }
+    let section = doc.canopy.clone().unwrap();
+    let run = section
+        .run(&doc.case, doc.heat_limit_c, doc.margin_k, None)
+        .unwrap();
+    let vent = run.ventilation.expect("under cover");
+    for units in [UnitSystem::Si, UnitSystem::Imperial] {
+        let r = build_report(&doc, &extras_for(&doc), units).unwrap();
+        no_nan(&r.html, "sizing");
+        let html = Html::parse_document(&r.html);
+        assert!(html.errors.is_empty(), "{:?}", html.errors);
+        let speed = text(by_id(&html, "canopy-least-speed"));
+        let shade = text(by_id(&html, "canopy-least-shade"));
+        let v = text(by_id(&html, "canopy-least-ventilation"));
+        assert!(speed.starts_with("Least canopy-top air speed"), "{speed}");
+        assert!(shade.starts_with("Least shade"), "{shade}");
+        assert!(v.starts_with("Least ventilation"), "{v}");
+        let q = Quantity::VentilationRate;
+        let factor = q.format(vent.check.factor.rate_m3_m2_s, units);
+        assert!(v.contains(&factor), "{factor} in {v}");
+        if let Some(rate) = vent.check.for_leaf.rate_m3_m2_s() {
+            assert!(v.contains(&q.format(rate, units)), "{v}");
+        }
+        let unit = if units == UnitSystem::Si {
+            "m³/s per m²"
+        } else {
+            "cfm/ft²"
+        };
+        assert!(v.contains(unit), "{v}");
+        let all = text(by_id(&html, "canopy-sizing"));
+        assert!(all.contains("licensed practitioners"), "{all}");
+        assert!(text(by_id(&html, "sources")).contains("EP406"));
+    }
+}
+
 #[test]
 fn a_failed_optional_section_says_why_and_the_rest_stands() {
     let (_, doc) = &scenarios()[0];
@@ -422,10 +469,12 @@ fn a_failed_optional_section_says_why_and_the_rest_stands() {
     let extras = ReportExtras {
         canopy: Some(bad),
         design_day: None,
+        sizing: Some(Err("an invented failure".to_owned())),
     };
     let r = build_report(doc, &extras, UnitSystem::Si).unwrap();
     let html = Html::parse_document(&r.html);
     assert!(text(by_id(&html, "canopy")).contains("could not be computed"));
+    assert!(text(by_id(&html, "canopy-sizing")).contains("an invented failure"));
     assert!(html.select(&sel("#leaf-temp")).next().is_some());
 }
 

@@ -1,4 +1,4 @@
-//! Optional sections: the canopy profile and the hour-by-hour design day. The scenario document
+//! Optional sections: the canopy profile, the canopy sizing answers and the hour-by-hour design day. The scenario document
 //! has no canopy or design-day inputs yet, so these take the engine's own inputs
 //! ([`CanopyCase`], [`DesignDay`] + [`SeriesCase`]) through [`super::ReportExtras`]; a report
 //! without them simply has no such section.
@@ -13,8 +13,10 @@ use super::Section;
 use super::html::{esc, figure, grid_table, num_span};
 use super::plots::{LinePlot, Series, axis_title, line_plot_svg};
 use super::tables::{CsvTable, csv_num, csv_opt, csv_q, head, show, show_opt, show_with};
-use super::text::{CANOPY_SOURCES, DESIGN_DAY_SOURCES};
+use super::text::{CANOPY_SOURCES, DESIGN_DAY_SOURCES, SIZING_SOURCES};
 use super::units::{Quantity, UnitSystem};
+use crate::canopy_scenario::CanopySizing;
+use crate::gui::panels::canopy::{shade_sentence, speed_sentence, ventilation_sentence};
 
 /// Heights in the canopy use the altitude unit (m or ft) with two decimals.
 const HEIGHT: Quantity = Quantity::Altitude;
@@ -30,6 +32,47 @@ fn failed(id: &'static str, heading: &str, what: &str, e: &str) -> Section {
         ),
         tables: Vec::new(),
         sources: &[],
+    }
+}
+
+/// The canopy sizing answers at the scenario's moment: the least canopy-top air speed, and under a
+/// cover the least shade and the least ventilation rate beside the ventilation standard's factor
+/// method, each in one sentence in the report's units, with the cautions that go with them.
+#[must_use]
+pub fn sizing_section(sizing: &Result<CanopySizing, String>, units: UnitSystem) -> Section {
+    const HEADING: &str = "Canopy sizing: air speed, shade and ventilation";
+    let s = match sizing {
+        Ok(s) => s,
+        Err(e) => return failed("canopy-sizing", HEADING, "canopy sizing answers", e),
+    };
+    let mut body = String::new();
+    for (id, sentence) in [
+        ("canopy-least-speed", speed_sentence(&s.speed, units)),
+        (
+            "canopy-least-shade",
+            shade_sentence(s.shade.as_ref(), units),
+        ),
+        (
+            "canopy-least-ventilation",
+            ventilation_sentence(s.ventilation.as_ref(), units),
+        ),
+    ] {
+        body.push_str(&format!("<p id=\"{id}\">{}</p>\n", esc(&sentence)));
+    }
+    body.push_str(&format!(
+        "<p class=\"note\">Limit: {} ({}, {}), kept {} below. Air speeds are at the top of the crop; ventilation rates are outside air exchanged per floor area (the fans' total rated flow divided by the floor area).</p>\n",
+        esc(&show(Quantity::Temperature, s.limit.limit_c, units)),
+        esc(&s.limit.crop),
+        esc(s.limit.kind.word()),
+        esc(&show(Quantity::TempDiff, s.margin_k, units)),
+    ));
+    body.push_str("<p class=\"warning\">Fans, vents, pads and their electrical installation must follow local codes and be designed and installed by licensed practitioners. A house that is hot for the crop is dangerous for the people working in it. Verify the air speed at the crop with an anemometer before relying on it.</p>\n");
+    Section {
+        id: "canopy-sizing",
+        heading: HEADING.to_owned(),
+        body_html: body,
+        tables: Vec::new(),
+        sources: SIZING_SOURCES,
     }
 }
 

@@ -8,7 +8,7 @@
 //! | [`tables`] | the CSV tables and the number formatting (never NaN: "—" or an empty cell) |
 //! | [`html`] | escaping and small HTML pieces |
 //! | [`text`] | the assumptions, the published sources and the cautions |
-//! | [`extras`] | the optional canopy and design-day sections |
+//! | [`extras`] | the optional canopy profile, canopy sizing and design-day sections |
 //!
 //! Entry points: [`write_report`] (what `leafwind report` and the window's "Export report…" call),
 //! [`write_report_with`] for the optional sections, and [`build_report`] to get the report in
@@ -22,6 +22,8 @@ use leafwind_physics::canopy::CanopyCase;
 use leafwind_physics::design_day::{DesignDay, SeriesCase};
 use leafwind_physics::required_wind::SEARCH_MAX_SPEED_DEFAULT_M_S;
 use leafwind_physics::{Humidity, UpperView, WindAnswer, required_wind};
+
+use crate::canopy_scenario::CanopySizing;
 
 // The document, the derived results and the units live under `gui/` for now; when they move to
 // the crate root, this is the one line to change.
@@ -46,7 +48,7 @@ use tables::{
 use text::Source;
 use units::{Quantity, UnitSystem};
 
-pub use extras::{canopy_section, design_day_section};
+pub use extras::{canopy_section, design_day_section, sizing_section};
 
 /// Name of the HTML file inside the report folder.
 pub const HTML_FILE: &str = "report.html";
@@ -62,6 +64,8 @@ pub struct ReportExtras {
     pub canopy: Option<CanopyCase>,
     /// A design day to run hour by hour, with its series case (site, canopy, crop limit, setting).
     pub design_day: Option<(DesignDay, SeriesCase)>,
+    /// The canopy sizing answers at the section's moment, or why they could not be found.
+    pub sizing: Option<Result<CanopySizing, String>>,
 }
 
 /// One section of the report.
@@ -133,6 +137,11 @@ pub fn extras_for(doc: &ScenarioDocument) -> ReportExtras {
                 .design_day_inputs(&doc.case, doc.heat_limit_c)
                 .ok()
                 .flatten(),
+            sizing: Some(
+                section
+                    .sizing(&doc.case, doc.heat_limit_c, doc.margin_k)
+                    .map_err(|e| format!("{e:#}")),
+            ),
         },
     }
 }
@@ -195,6 +204,9 @@ pub fn build_report(
     ];
     if let Some(c) = &extras.canopy {
         sections.push(canopy_section(c, units));
+    }
+    if let Some(s) = &extras.sizing {
+        sections.push(sizing_section(s, units));
     }
     if let Some((day, case)) = &extras.design_day {
         sections.push(design_day_section(day, case, units));

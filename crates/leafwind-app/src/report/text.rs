@@ -81,6 +81,18 @@ pub const CANOPY_SOURCES: &[Source] = &[
     },
 ];
 
+/// The sources of the canopy sizing answers (used when the report has that section).
+pub const SIZING_SOURCES: &[Source] = &[
+    Source {
+        model: "Greenhouse inside air from the steady ventilation balance",
+        reference: "ASHRAE, ASHRAE Handbook — HVAC Applications, chapter \"Environmental control for animals and plants\" (from memory).",
+    },
+    Source {
+        model: "Ventilation standard's factor method (8 cfm per ft² at 5 000 fc, 7 °F rise, below 1 000 ft; elevation, light and temperature factors)",
+        reference: "ASABE EP406, Heating, Ventilating and Cooling Greenhouses (values from memory).",
+    },
+];
+
 /// The sources of the hour-by-hour design day (used when the report has a design-day section).
 pub const DESIGN_DAY_SOURCES: &[Source] = &[
     Source {

@@ -474,18 +474,7 @@ impl CanopySection {
     ) -> Result<Moment> {
         let (canopy, inside_air_temp_c, speed, shade, ventilation) = match &self.greenhouse {
             None => {
-                let cc = CanopyCase {
-                    air: case.air,
-                    leaf: case.leaf,
-                    upper_view: case.surroundings.upper_view,
-                    light: CanopyLight {
-                        sun_elevation_rad: elevation,
-                        shortwave,
-                    },
-                    structure: self.structure,
-                    critical_reynolds: case.critical_reynolds,
-                    limit_c: Some(limit.limit_c),
-                };
+                let cc = self.open_field_case(case, elevation, shortwave, limit.limit_c);
                 let sol = canopy::solve_canopy(&cc)?;
                 let speed = canopy::least_top_speed(
                     &cc,
@@ -562,6 +551,28 @@ impl CanopySection {
         }))
     }
 
+    /// The canopy case in the open field: the scenario's air and sky, and the light above.
+    fn open_field_case(
+        &self,
+        case: &LeafCase,
+        elevation_rad: f64,
+        shortwave: HorizontalShortwave,
+        limit_c: f64,
+    ) -> CanopyCase {
+        CanopyCase {
+            air: case.air,
+            leaf: case.leaf,
+            upper_view: case.surroundings.upper_view,
+            light: CanopyLight {
+                sun_elevation_rad: elevation_rad,
+                shortwave,
+            },
+            structure: self.structure,
+            critical_reynolds: case.critical_reynolds,
+            limit_c: Some(limit_c),
+        }
+    }
+
     /// The canopy case at the profile's moment, as the crop sees it: in the open field the scenario's
     /// air, sky and the light above; under cover the inside air from the greenhouse balance, the
     /// cover as what the canopy sees, and the light the cover and shade let through.
@@ -572,18 +583,7 @@ impl CanopySection {
         let limit = self.limit(own_limit_c)?;
         let (pos, shortwave) = self.light()?;
         let elevation = pos.elevation_rad.max(0.0);
-        let mut cc = CanopyCase {
-            air: case.air,
-            leaf: case.leaf,
-            upper_view: case.surroundings.upper_view,
-            light: CanopyLight {
-                sun_elevation_rad: elevation,
-                shortwave,
-            },
-            structure: self.structure,
-            critical_reynolds: case.critical_reynolds,
-            limit_c: Some(limit.limit_c),
-        };
+        let mut cc = self.open_field_case(case, elevation, shortwave, limit.limit_c);
         if let Some(g) = &self.greenhouse {
             let gc = self.greenhouse_case(g, case, elevation, shortwave, limit.limit_c);
             let sol = greenhouse::solve_greenhouse(&gc)?;

@@ -87,6 +87,14 @@ pub struct GreenhouseSection {
     /// The inside air: the scenario's, or from the ventilation balance.
     #[serde(default)]
     pub inside: InsideMode,
+    /// The rise of the air from inlet to outlet the ventilation design allows \[K\] (the
+    /// ventilation standard's reference is 4 K, 7 °F).
+    #[serde(default = "default_design_rise")]
+    pub design_rise_k: f64,
+}
+
+fn default_design_rise() -> f64 {
+    ventilation::FACTOR_REFERENCE_RISE_K
 }
 
 impl GreenhouseSection {
@@ -232,6 +240,8 @@ pub struct VentilationRun {
     /// Whether the scenario's other answers take the inside air as measured (the ventilation
     /// answers always come from the balance with the outside air).
     pub inside_as_measured: bool,
+    /// The allowed rise of the air the design-rise answers use \[K\].
+    pub design_rise_k: f64,
 }
 
 impl VentilationRun {
@@ -490,9 +500,15 @@ impl CanopySection {
                 let sizing =
                     greenhouse::size(&gc, limit.limit_c, margin_k, self.max_search_speed_m_s)?;
                 let ventilation = VentilationRun {
-                    check: ventilation::design_check(&gc, limit.limit_c, margin_k)?,
+                    check: ventilation::design_check(
+                        &gc,
+                        limit.limit_c,
+                        margin_k,
+                        g.design_rise_k,
+                    )?,
                     outside_air_temp_c: g.outside_air_temp_c,
                     inside_as_measured: matches!(g.inside, InsideMode::ScenarioAir),
+                    design_rise_k: g.design_rise_k,
                 };
                 (
                     sol.canopy,

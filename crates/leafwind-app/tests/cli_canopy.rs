@@ -62,7 +62,8 @@ fn open_field_json_has_the_documented_keys_and_a_design_day() {
         "required_shade_fraction_reason",
         "required_ventilation_m3_m2_s",
         "required_ventilation_reason",
-        "ventilation_for_4_k_rise_m3_m2_s",
+        "design_rise_k",
+        "ventilation_for_design_rise_m3_m2_s",
         "standard_factor_rate_m3_m2_s",
         "layers",
         "design_day",
@@ -128,6 +129,7 @@ fn greenhouse_gives_a_shade_answer() {
             outside_air_temp_c: 32.0,
             outside_humidity: Humidity::RelativePct(40.0),
             inside: InsideMode::Ventilated { rate_m3_m2_s: 0.03 },
+            design_rise_k: 4.0,
         });
     }
     let v = json(write(&doc, &dir));
@@ -155,7 +157,8 @@ fn greenhouse_gives_a_shade_answer() {
     }
     let factor = v["standard_factor_rate_m3_m2_s"].as_f64().unwrap();
     assert!(factor > 0.0 && factor < 0.2, "{factor}");
-    assert!(v["ventilation_for_4_k_rise_m3_m2_s"].as_f64().unwrap() > 0.0);
+    assert!(v["ventilation_for_design_rise_m3_m2_s"].as_f64().unwrap() > 0.0);
+    assert_eq!(v["design_rise_k"].as_f64(), Some(4.0));
 }
 
 #[test]

@@ -135,6 +135,31 @@ fn values_of_every_section_are_checked() {
             "case.air.humidity",
         ),
         ("lai: 3.0,", "lai: -1.0,", "canopy.structure"),
+        (
+            "shade_fraction: 0.0,",
+            "shade_fraction: 1.5,",
+            "canopy.greenhouse.shade_fraction",
+        ),
+        (
+            "transmittance: 0.62,",
+            "transmittance: -0.1,",
+            "canopy.greenhouse.cover.transmittance",
+        ),
+        (
+            "outside_air_temp_c: 29.0,",
+            "outside_air_temp_c: 99.0,",
+            "canopy.greenhouse.outside_air_temp_c",
+        ),
+        (
+            "inside: ScenarioAir,",
+            "inside: Ventilated(rate_m3_m2_s: 5.0),",
+            "canopy.greenhouse.inside.rate_m3_m2_s",
+        ),
+        (
+            "inside: ScenarioAir,",
+            "inside: ScenarioAir, design_rise_k: 0.0,",
+            "canopy.greenhouse.design_rise_k",
+        ),
     ];
     for (from, to, path) in cases {
         let text = full_example();

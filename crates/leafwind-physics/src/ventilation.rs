@@ -343,14 +343,15 @@ pub fn least_ventilation(
 pub struct VentilationCheck {
     /// The least rate that keeps the hottest leaf at or below the limit less the margin.
     pub for_leaf: VentilationAnswer,
-    /// The least rate that holds the inside air within the standard's reference rise (4 K).
-    pub for_reference_rise: VentilationAnswer,
-    /// The standard's factor method for this site and light at the reference rise.
+    /// The least rate that holds the inside air within the design rise.
+    pub for_design_rise: VentilationAnswer,
+    /// The standard's factor method for this site and light at the design rise.
     pub factor: FactorRate,
 }
 
-/// Both least rates and the factor method for one greenhouse case: the light inside is the case's
-/// global shortwave above the canopy, turned into illuminance by [`illuminance_klx`].
+/// Both least rates and the factor method for one greenhouse case and an allowed rise `rise_k`
+/// \[K\] of the air from inlet to outlet; the light inside is the case's global shortwave above
+/// the canopy, turned into illuminance by [`illuminance_klx`].
 ///
 /// # Errors
 /// As [`least_ventilation`] and [`factor_rate`].
@@ -358,21 +359,17 @@ pub fn design_check(
     case: &GreenhouseCase,
     limit_c: f64,
     margin_k: f64,
+    rise_k: f64,
 ) -> Result<VentilationCheck> {
     let light = case.inside_light();
     let inside_w_m2 = light.beam_w_m2 + light.diffuse_w_m2;
     Ok(VentilationCheck {
         for_leaf: least_ventilation(case, VentilationTarget::HottestLeaf { limit_c, margin_k })?,
-        for_reference_rise: least_ventilation(
-            case,
-            VentilationTarget::InsideRise {
-                rise_k: FACTOR_REFERENCE_RISE_K,
-            },
-        )?,
+        for_design_rise: least_ventilation(case, VentilationTarget::InsideRise { rise_k })?,
         factor: factor_rate(
             case.outside.pressure_kpa,
             illuminance_klx(inside_w_m2).min(ILLUMINANCE_RANGE_KLX.max),
-            FACTOR_REFERENCE_RISE_K,
+            rise_k,
         )?,
     })
 }

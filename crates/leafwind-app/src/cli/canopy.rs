@@ -122,11 +122,14 @@ pub struct CanopyRecord {
     pub required_ventilation_m3_m2_s: Option<f64>,
     /// The ventilation answer in words.
     pub required_ventilation_reason: String,
-    /// Least ventilation rate that holds the inside air within 4 K of the outside air, from the
-    /// balance \[m³ s⁻¹ m⁻²\]; null when there is none (or no cover).
-    pub ventilation_for_4_k_rise_m3_m2_s: Option<f64>,
-    /// The ventilation standard's factor method for a 4 K rise at this site and light (ASABE
-    /// EP406, from memory) \[m³ s⁻¹ m⁻²\]; null with no cover.
+    /// The allowed rise of the air from inlet to outlet the design-rise answers use \[K\]; null
+    /// with no cover.
+    pub design_rise_k: Option<f64>,
+    /// Least ventilation rate that holds the inside air within the design rise of the outside
+    /// air, from the balance \[m³ s⁻¹ m⁻²\]; null when there is none (or no cover).
+    pub ventilation_for_design_rise_m3_m2_s: Option<f64>,
+    /// The ventilation standard's factor method for the design rise at this site and light
+    /// (ASABE EP406, from memory) \[m³ s⁻¹ m⁻²\]; null with no cover.
     pub standard_factor_rate_m3_m2_s: Option<f64>,
     /// The layers, top first.
     pub layers: Vec<LayerRecord>,
@@ -229,10 +232,11 @@ impl CanopyRecord {
                 .as_ref()
                 .and_then(|v| v.check.for_leaf.rate_m3_m2_s()),
             required_ventilation_reason: run.ventilation_reason(),
-            ventilation_for_4_k_rise_m3_m2_s: run
+            design_rise_k: run.ventilation.as_ref().map(|v| v.design_rise_k),
+            ventilation_for_design_rise_m3_m2_s: run
                 .ventilation
                 .as_ref()
-                .and_then(|v| v.check.for_reference_rise.rate_m3_m2_s()),
+                .and_then(|v| v.check.for_design_rise.rate_m3_m2_s()),
             standard_factor_rate_m3_m2_s: run
                 .ventilation
                 .as_ref()
@@ -357,13 +361,13 @@ pub fn run(args: &CanopyArgs, out: &mut impl Write) -> Result<ExitCode> {
     writeln!(out, "Air speed: {}", r.required_wind_reason)?;
     writeln!(out, "Shade: {}", r.required_shade_fraction_reason)?;
     writeln!(out, "Ventilation: {}", r.required_ventilation_reason)?;
-    if let (Some(rise), Some(factor)) = (
-        r.ventilation_for_4_k_rise_m3_m2_s,
-        r.standard_factor_rate_m3_m2_s,
-    ) {
+    if let (Some(dt), Some(factor)) = (r.design_rise_k, r.standard_factor_rate_m3_m2_s) {
+        let balance = r
+            .ventilation_for_design_rise_m3_m2_s
+            .map_or_else(|| "none can".to_owned(), |v| format!("{v:.3} m³/s per m²"));
         writeln!(
             out,
-            "Ventilation for a 4 K rise: {rise:.3} m³/s per m² from the balance; the standard's factor method (EP406, from memory) asks for {factor:.3}."
+            "Ventilation for a {dt:.1} K rise: {balance} from the balance; the standard's factor method (EP406, from memory) asks for {factor:.3} m³/s per m²."
         )?;
     }
     writeln!(

@@ -25,7 +25,14 @@ use leafwind_physics::transpiration::{
     CUTICULAR_CONDUCTANCE_RANGE_MOL_M2_S, LOWER_SHARE_RANGE, STOMATAL_CONDUCTANCE_RANGE_MOL_M2_S,
 };
 
+use leafwind_physics::greenhouse::{
+    CoverTemperature, HEAT_LOSS_RANGE_W_M2_K, SHADE_FRACTION_RANGE, TRANSMITTANCE_RANGE,
+    VENTILATION_RANGE_M3_M2_S,
+};
+use leafwind_physics::ventilation::RISE_RANGE_K;
+
 use super::document::{MAX_EXTRA_SIZES, SWEEP_MAX_RANGE_M_S, ScenarioDocument};
+use crate::canopy_scenario::{GreenhouseSection, InsideMode};
 
 // ----- atomic writes -----
 
@@ -333,6 +340,9 @@ pub fn validate_document(doc: &ScenarioDocument) -> Result<(), FieldError> {
             c.max_search_speed_m_s,
             &renamed(AIR_SPEED_RANGE_M_S, "canopy-top air speed search maximum"),
         )?;
+        if let Some(g) = &c.greenhouse {
+            validate_greenhouse(g)?;
+        }
     }
     if let Some(f) = &doc.fans {
         f.layout
@@ -347,6 +357,53 @@ pub fn validate_document(doc: &ScenarioDocument) -> Result<(), FieldError> {
         }
     }
     non_finite_anywhere(doc)
+}
+
+/// The greenhouse fields, each against its range with its document path.
+fn validate_greenhouse(g: &GreenhouseSection) -> Result<(), FieldError> {
+    const AT: &str = "canopy.greenhouse";
+    check(
+        &format!("{AT}.cover.transmittance"),
+        g.cover.transmittance,
+        &TRANSMITTANCE_RANGE,
+    )?;
+    check(
+        &format!("{AT}.cover.heat_loss_w_m2_k"),
+        g.cover.heat_loss_w_m2_k,
+        &HEAT_LOSS_RANGE_W_M2_K,
+    )?;
+    if let CoverTemperature::GivenC(t) = g.cover.temperature {
+        check(
+            &format!("{AT}.cover.temperature"),
+            t,
+            &renamed(SURFACE_TEMP_RANGE_C, "cover temperature"),
+        )?;
+    }
+    check(
+        &format!("{AT}.shade_fraction"),
+        g.shade_fraction,
+        &SHADE_FRACTION_RANGE,
+    )?;
+    check(
+        &format!("{AT}.outside_air_temp_c"),
+        g.outside_air_temp_c,
+        &renamed(AIR_TEMP_RANGE_C, "outside air temperature"),
+    )?;
+    g.outside_humidity
+        .vapour_pressure_kpa(g.outside_air_temp_c)
+        .map_err(|e| field_error(&format!("{AT}.outside_humidity"), &e, None))?;
+    if let InsideMode::Ventilated { rate_m3_m2_s } = g.inside {
+        check(
+            &format!("{AT}.inside.rate_m3_m2_s"),
+            rate_m3_m2_s,
+            &VENTILATION_RANGE_M3_M2_S,
+        )?;
+    }
+    check(
+        &format!("{AT}.design_rise_k"),
+        g.design_rise_k,
+        &RISE_RANGE_K,
+    )
 }
 
 /// A backstop for the sections the checks above do not list field by field: any NaN or infinite

@@ -39,7 +39,14 @@ fn failed(id: &'static str, heading: &str, what: &str, e: &str) -> Section {
 /// cover the least shade and the least ventilation rate beside the ventilation standard's factor
 /// method, each in one sentence in the report's units, with the cautions that go with them.
 #[must_use]
-pub fn sizing_section(sizing: &Result<CanopySizing, String>, units: UnitSystem) -> Section {
+///
+/// `house_m`: length and width of the house \[m\] (the fans section's), to state the least
+/// ventilation rate also as the house's exhaust-fan flow.
+pub fn sizing_section(
+    sizing: &Result<CanopySizing, String>,
+    house_m: Option<(f64, f64)>,
+    units: UnitSystem,
+) -> Section {
     const HEADING: &str = "Canopy sizing: air speed, shade and ventilation";
     let s = match sizing {
         Ok(s) => s,
@@ -54,7 +61,7 @@ pub fn sizing_section(sizing: &Result<CanopySizing, String>, units: UnitSystem) 
         ),
         (
             "canopy-least-ventilation",
-            ventilation_sentence(s.ventilation.as_ref(), units),
+            ventilation_sentence(s.ventilation.as_ref(), house_m, units),
         ),
     ] {
         body.push_str(&format!("<p id=\"{id}\">{}</p>\n", esc(&sentence)));

@@ -206,7 +206,11 @@ pub fn build_report(
         sections.push(canopy_section(c, units));
     }
     if let Some(s) = &extras.sizing {
-        sections.push(sizing_section(s, units));
+        let house = doc
+            .fans
+            .as_ref()
+            .map(|f| (f.layout.house_length_m, f.layout.house_width_m));
+        sections.push(sizing_section(s, house, units));
     }
     if let Some((day, case)) = &extras.design_day {
         sections.push(design_day_section(day, case, units));

@@ -20,6 +20,7 @@ use leafwind_physics::design_day::{DayHumidity, DesignDay, HourlySeries};
 
 use crate::canopy_scenario::{CoolingTable, VentilationRun};
 use leafwind_physics::error::ValidRange;
+use leafwind_physics::fans::{m3_s_to_cfm, m3_s_to_m3_h};
 use leafwind_physics::greenhouse::{
     CoverTemperature, HEAT_LOSS_RANGE_W_M2_K, SHADE_FRACTION_RANGE, ShadeAnswer,
     TRANSMITTANCE_RANGE, VENTILATION_DEFAULT_M3_M2_S, VENTILATION_RANGE_M3_M2_S,
@@ -524,7 +525,14 @@ pub fn shade_sentence(a: Option<&ShadeAnswer>, units: UnitSystem) -> String {
 /// The least ventilation rate for the hottest leaf, and the rate for a 4 K (7 °F) rise beside the
 /// standard's factor method, in two sentences (or why there are none).
 #[must_use]
-pub fn ventilation_sentence(run: Option<&VentilationRun>, units: UnitSystem) -> String {
+///
+/// With `house_m` (length and width of the house \[m\], from the fans section) the least rate is
+/// also given as the house's total exhaust-fan flow, in m³/h (SI) or cfm (imperial).
+pub fn ventilation_sentence(
+    run: Option<&VentilationRun>,
+    house_m: Option<(f64, f64)>,
+    units: UnitSystem,
+) -> String {
     let Some(run) = run else {
         return "Least ventilation: ventilation sizing needs a greenhouse cover; this crop is in the open field.".to_owned();
     };
@@ -553,12 +561,8 @@ pub fn ventilation_sentence(run: Option<&VentilationRun>, units: UnitSystem) -> 
             t(target_c(target))
         ),
     };
-    let rise = show(
-        Quantity::TempDiff,
-        ventilation::FACTOR_REFERENCE_RISE_K,
-        units,
-    );
-    let second = match v.for_reference_rise.rate_m3_m2_s() {
+    let rise = show(Quantity::TempDiff, run.design_rise_k, units);
+    let second = match v.for_design_rise.rate_m3_m2_s() {
         Some(b) => format!(
             "To hold the inside air within {rise} of outside: {} from the balance for this crop; the ventilation standard's factor method asks for {} (ASABE EP406 factors, from memory).",
             r(b),
@@ -569,10 +573,41 @@ pub fn ventilation_sentence(run: Option<&VentilationRun>, units: UnitSystem) -> 
             r(v.factor.rate_m3_m2_s)
         ),
     };
+    let house = match (house_m, v.for_leaf.rate_m3_m2_s()) {
+        (Some((length_m, width_m)), Some(rate)) => {
+            let flow_m3_s = rate * length_m * width_m;
+            let l = |x: f64| show(Quantity::Altitude, x, units);
+            let flow = match units {
+                UnitSystem::Si => {
+                    format!("{} m³/h", num(three_figures(m3_s_to_m3_h(flow_m3_s)), 0))
+                }
+                UnitSystem::Imperial => {
+                    format!("{} cfm", num(three_figures(m3_s_to_cfm(flow_m3_s)), 0))
+                }
+            };
+            format!(
+                " For the {} × {} house of the fans section that is about {flow} of exhaust fans, rated at their working static pressure.",
+                l(length_m),
+                l(width_m)
+            )
+        }
+        _ => String::new(),
+    };
     format!(
-        "Least ventilation ({}): {first} {second}",
+        "Least ventilation ({}): {first}{house} {second}",
         run.basis(&t(run.outside_air_temp_c))
     )
+}
+
+/// `x` rounded to three significant figures (for a total fan flow, where more would be false
+/// precision).
+fn three_figures(x: f64) -> f64 {
+    if x.is_finite() && x != 0.0 {
+        let scale = 10f64.powi(x.abs().log10().floor() as i32 - 2);
+        (x / scale).round() * scale
+    } else {
+        x
+    }
 }
 
 /// The leaf temperature a ventilation target aims at \[°C\] (for a rise target: none, shown as –).
@@ -713,7 +748,13 @@ impl CanopyPanel {
             .strong(),
         );
         ui.label(RichText::new(shade_sentence(run.shade.as_ref(), units)).strong());
-        ui.label(RichText::new(ventilation_sentence(run.ventilation.as_ref(), units)).strong());
+        let house = doc
+            .fans
+            .as_ref()
+            .map(|f| (f.layout.house_length_m, f.layout.house_width_m));
+        ui.label(
+            RichText::new(ventilation_sentence(run.ventilation.as_ref(), house, units)).strong(),
+        );
         ui.add_space(4.0);
         let margin = h.margin_k.unwrap_or(run.limit.limit_c - h.leaf_temp_c);
         let status = LimitStatus::of(h.leaf_temp_c, run.limit.limit_c, run.margin_k);
@@ -1152,6 +1193,7 @@ fn section_inputs(
                 outside_air_temp_c: case.air.temp_c,
                 outside_humidity: Humidity::RelativePct(50.0),
                 inside: InsideMode::ScenarioAir,
+                design_rise_k: ventilation::FACTOR_REFERENCE_RISE_K,
             });
         }
         if let Some(g) = &mut c.greenhouse {
@@ -1442,6 +1484,21 @@ fn greenhouse_inputs(ui: &mut Ui, g: &mut GreenhouseSection, case: &LeafCase, un
             );
         }
     }
+    number_field(
+        ui,
+        &Field {
+            label: "Allowed rise of the air",
+            quantity: Quantity::TempDiff,
+            range: ventilation::RISE_RANGE_K,
+            slider: (1.0, 10.0),
+            log: false,
+            decimals: Some(1),
+            tooltip: "How much warmer than the outside air the ventilation design lets the air leaving the house be (inlet to outlet). The ventilation standard's reference is 4 K (7 °F); a smaller rise needs more fan capacity. Used for the ventilation answers.",
+        },
+        &mut g.design_rise_k,
+        units,
+        |_| None,
+    );
 }
 
 fn crop_limit_row(ui: &mut Ui, c: &mut CanopySection, own_limit_c: f64, units: UnitSystem) {
@@ -2150,10 +2207,30 @@ mod tests {
         let input = CanopyInput::of(&doc, None).expect("the example has a canopy section");
         let run = compute_canopy(&input).unwrap();
         for u in [UnitSystem::Si, UnitSystem::Imperial] {
-            let s = speed_sentence(&run.speed, u) + &shade_sentence(run.shade.as_ref(), u);
+            let s = speed_sentence(&run.speed, u)
+                + &shade_sentence(run.shade.as_ref(), u)
+                + &ventilation_sentence(run.ventilation.as_ref(), Some((60.0, 10.0)), u);
             assert!(!s.contains("NaN") && !s.contains("inf"), "{s}");
         }
         assert!(run.design_day.is_some());
+    }
+
+    #[test]
+    fn house_flow_is_the_rate_times_the_floor_in_three_figures() {
+        assert!((three_figures(61_072.4) - 61_100.0).abs() < 1e-6);
+        assert!((three_figures(0.012_345) - 0.0123).abs() < 1e-12);
+        assert_eq!(three_figures(0.0), 0.0);
+        let doc = crate::gui::document::first_example();
+        let run = compute_canopy(&CanopyInput::of(&doc, None).unwrap()).unwrap();
+        let v = run.ventilation.expect("under cover");
+        let Some(rate) = v.check.for_leaf.rate_m3_m2_s() else {
+            return;
+        };
+        let s = ventilation_sentence(Some(&v), Some((50.0, 8.0)), UnitSystem::Si);
+        let m3_h = three_figures(rate * 400.0 * 3600.0);
+        assert!(s.contains(&format!("{} m³/h", num(m3_h, 0))), "{s}");
+        let s = ventilation_sentence(Some(&v), Some((50.0, 8.0)), UnitSystem::Imperial);
+        assert!(s.contains(" cfm of exhaust fans"), "{s}");
     }
 
     #[test]

@@ -4,9 +4,9 @@
 //! Figures to record, never timed assertions.
 
 use criterion::{Criterion, criterion_group, criterion_main};
+use leafwind_app::document::first_example;
 use leafwind_app::gui::LeafwindApp;
 use leafwind_app::gui::commands::Command;
-use leafwind_app::gui::document::first_example;
 use leafwind_app::gui::prefs::PlotTab;
 
 fn input() -> egui::RawInput {

@@ -2,8 +2,8 @@
 //! Figures to record, never timed assertions.
 
 use criterion::{Criterion, criterion_group, criterion_main};
+use leafwind_app::document::{ScenarioDocument, first_example};
 use leafwind_app::gui::compute::{MapInput, PREVIEW_CELLS, compute_map, solve_map_grid};
-use leafwind_app::gui::document::{ScenarioDocument, first_example};
 
 fn bench_map(c: &mut Criterion) {
     let doc = ScenarioDocument::default();

@@ -9,7 +9,7 @@ use cli_support::write;
 
 use leafwind_app::canopy_scenario::{CanopySection, GreenhouseSection, InsideMode};
 use leafwind_app::cli::canopy::{CanopyArgs, run};
-use leafwind_app::gui::document::ScenarioDocument;
+use leafwind_app::document::ScenarioDocument;
 use leafwind_physics::Humidity;
 use leafwind_physics::design_day::DesignDay;
 use leafwind_physics::greenhouse::Cover;

@@ -8,8 +8,8 @@ use std::path::PathBuf;
 use cli_support::write;
 
 use leafwind_app::cli::fans::{FansArgs, run};
+use leafwind_app::document::ScenarioDocument;
 use leafwind_app::fans_scenario::{FansSection, NightCheck};
-use leafwind_app::gui::document::ScenarioDocument;
 use leafwind_physics::{Humidity, UpperView};
 
 fn temp_dir(name: &str) -> PathBuf {

@@ -15,10 +15,10 @@ use std::time::Duration;
 use egui_kittest::Harness;
 use egui_kittest::kittest::Queryable as _;
 use gui_support::{has_text, set_slider};
+use leafwind_app::document::{ScenarioDocument, first_example};
 use leafwind_app::gui::LeafwindApp;
 use leafwind_app::gui::autosave::{AUTOSAVE_FILE, Autosave, DATA_DIR_ENV, SELFTEST_ENV};
 use leafwind_app::gui::commands::Command;
-use leafwind_app::gui::document::{ScenarioDocument, first_example};
 
 fn data_dir(name: &str) -> PathBuf {
     let d = std::env::temp_dir().join(format!("leafwind-crash-{}-{name}", std::process::id()));

@@ -9,11 +9,11 @@ use std::path::{Path, PathBuf};
 
 use egui_kittest::kittest::Queryable as _;
 use gui_support::{harness, has_text, set_slider};
-use leafwind_app::gui::commands::Command;
-use leafwind_app::gui::document::{
+use leafwind_app::document::{
     DOCUMENT_VERSION, EXAMPLES, LoadError, MIGRATIONS, ScenarioDocument, migrate,
 };
-use leafwind_app::gui::file_safety::write_atomic;
+use leafwind_app::file_safety::write_atomic;
+use leafwind_app::gui::commands::Command;
 
 fn temp_dir(name: &str) -> PathBuf {
     let d = std::env::temp_dir().join(format!("leafwind-safety-{}-{name}", std::process::id()));
@@ -397,7 +397,7 @@ fn deep_nesting_and_huge_files_are_errors_not_crashes() {
     let p = d.join("huge.ron");
     let f = std::fs::File::create(&p).unwrap();
     // A sparse file: no disk space used.
-    f.set_len(leafwind_app::gui::document::MAX_FILE_BYTES + 1)
+    f.set_len(leafwind_app::document::MAX_FILE_BYTES + 1)
         .unwrap();
     let e = ScenarioDocument::load(&p).unwrap_err().to_string();
     assert!(e.contains("larger than any scenario"), "{e}");

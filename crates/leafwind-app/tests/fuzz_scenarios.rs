@@ -9,8 +9,8 @@
 //! A failing input is written by proptest to `fuzz_scenarios.proptest-regressions` beside this
 //! file, to be committed and kept as a regression case.
 
-use leafwind_app::gui::document::{EXAMPLES, LoadError, ScenarioDocument};
-use leafwind_app::gui::file_safety::validate_document;
+use leafwind_app::document::{EXAMPLES, LoadError, ScenarioDocument};
+use leafwind_app::file_safety::validate_document;
 use proptest::prelude::*;
 
 fn cases() -> u32 {

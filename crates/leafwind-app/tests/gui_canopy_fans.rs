@@ -9,8 +9,8 @@ use egui::accesskit::Role;
 
 use egui_kittest::kittest::{NodeT as _, Queryable};
 use gui_support::{assert_no_non_finite, harness, has_text, non_finite_texts, set_slider};
+use leafwind_app::document::{ScenarioDocument, first_example};
 use leafwind_app::gui::commands::Command;
-use leafwind_app::gui::document::{ScenarioDocument, first_example};
 use leafwind_app::gui::prefs::PlotTab;
 
 /// The glasshouse example (the first shipped example) has both sections.
@@ -323,7 +323,7 @@ fn ventilation_is_answered_and_typed_in_cfm_per_square_foot_when_imperial() {
 
 #[test]
 fn the_open_field_example_canopy_has_no_shade_answer_and_says_why() {
-    let (_, text) = leafwind_app::gui::document::EXAMPLES
+    let (_, text) = leafwind_app::document::EXAMPLES
         .iter()
         .find(|(name, _)| *name == "open_field_hot_wind.ron")
         .expect("the open-field example");

@@ -8,8 +8,8 @@ use std::path::PathBuf;
 
 use egui_kittest::kittest::Queryable;
 use gui_support::{harness, has_text, non_finite_texts, set_slider};
+use leafwind_app::document::{EXAMPLES, ScenarioDocument};
 use leafwind_app::gui::commands::{Command, PlotKind};
-use leafwind_app::gui::document::{EXAMPLES, ScenarioDocument};
 use leafwind_app::gui::prefs::PlotTab;
 
 fn scenario_files() -> Vec<PathBuf> {

@@ -7,8 +7,8 @@ mod gui_support;
 use egui::accesskit::Role;
 use egui_kittest::kittest::Queryable;
 use gui_support::{assert_no_non_finite, harness, has_text, non_finite_texts, set_slider};
+use leafwind_app::document::ScenarioDocument;
 use leafwind_app::gui::commands::Command;
-use leafwind_app::gui::document::ScenarioDocument;
 use leafwind_physics::air::saturation_vapour_pressure_kpa;
 use leafwind_physics::{Humidity, UpperView};
 

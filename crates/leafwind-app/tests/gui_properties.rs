@@ -2,10 +2,10 @@
 //! round-trips any valid case exactly, field range checks agree with the engine's ranges, and the
 //! limit status is ordered. Invariants, common practice, no source.
 
+use leafwind_app::document::ScenarioDocument;
 use leafwind_app::gui::compute::LimitStatus;
-use leafwind_app::gui::document::ScenarioDocument;
 use leafwind_app::gui::fields::range_error;
-use leafwind_app::gui::units::{Quantity, UnitSystem};
+use leafwind_app::units::{Quantity, UnitSystem};
 use leafwind_physics::Humidity;
 use leafwind_physics::case::AIR_SPEED_RANGE_M_S;
 use proptest::prelude::*;

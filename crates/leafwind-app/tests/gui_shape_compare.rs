@@ -10,13 +10,13 @@ use std::path::PathBuf;
 use egui::accesskit::Role;
 use egui_kittest::kittest::Queryable;
 use gui_support::{assert_no_non_finite, harness, has_text, non_finite_texts, set_slider};
-use leafwind_app::gui::document::ScenarioDocument;
+use leafwind_app::document::ScenarioDocument;
 use leafwind_app::gui::panels::compare::{
     Better, CompareEntry, CompareInput, CompareTable, best_flags, compute_compare, table_csv,
 };
 use leafwind_app::gui::prefs::PlotTab;
-use leafwind_app::gui::units::UnitSystem;
 use leafwind_app::shape_scenario::ShapeFamily;
+use leafwind_app::units::UnitSystem;
 
 fn temp_path(name: &str) -> PathBuf {
     std::env::temp_dir().join(format!("leafwind-shape-test-{}-{name}", std::process::id()))

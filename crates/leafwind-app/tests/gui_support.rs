@@ -5,8 +5,8 @@
 use egui::accesskit::Role;
 use egui_kittest::Harness;
 use egui_kittest::kittest::{NodeT as _, Queryable};
+use leafwind_app::document::ScenarioDocument;
 use leafwind_app::gui::LeafwindApp;
-use leafwind_app::gui::document::ScenarioDocument;
 
 /// A harness tall enough that every input is on screen (and so in the accessibility tree).
 pub fn harness(doc: ScenarioDocument) -> Harness<'static, LeafwindApp> {

@@ -4,9 +4,9 @@
 
 use std::time::{Duration, Instant};
 
+use leafwind_app::document::ScenarioDocument;
 use leafwind_app::gui::LeafwindApp;
 use leafwind_app::gui::commands::Command;
-use leafwind_app::gui::document::ScenarioDocument;
 use leafwind_app::gui::prefs::PlotTab;
 
 fn input() -> egui::RawInput {

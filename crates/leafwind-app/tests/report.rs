@@ -9,11 +9,11 @@
 use std::collections::BTreeMap;
 use std::path::{Path, PathBuf};
 
-use leafwind_app::gui::document::ScenarioDocument;
-use leafwind_app::gui::units::{Quantity, UnitSystem};
+use leafwind_app::document::ScenarioDocument;
 use leafwind_app::report::{
     HTML_FILE, ReportExtras, build_report, extras_for, write_report, write_report_with,
 };
+use leafwind_app::units::{Quantity, UnitSystem};
 use leafwind_physics::canopy::{CanopyCase, solve_canopy};
 use leafwind_physics::design_day::{DesignDay, SeriesCase, run};
 use leafwind_physics::required_wind::SEARCH_MAX_SPEED_DEFAULT_M_S;

@@ -11,7 +11,7 @@ use leafwind_physics::sun::{self, DateTime};
 use serde::Serialize;
 
 use crate::canopy_scenario::{CanopyRun, CoolingTable, FAN_POWER_DEFAULT_W_M2};
-use crate::gui::document::ScenarioDocument;
+use crate::document::ScenarioDocument;
 use crate::output::finite;
 
 /// Arguments of `leafwind canopy`.

@@ -10,8 +10,8 @@ use clap::Args;
 use leafwind_physics::fans::{FanSizing, SpeedRange};
 use serde::Serialize;
 
+use crate::document::ScenarioDocument;
 use crate::fans_scenario::FansRun;
-use crate::gui::document::ScenarioDocument;
 
 /// Arguments of `leafwind fans`.
 #[derive(Debug, Clone, Args)]

@@ -9,8 +9,8 @@ use anyhow::{Result, anyhow};
 use clap::Args;
 
 // The document and units live under `gui/` for now (see `crate::report`).
-use crate::gui::{document::ScenarioDocument, units::UnitSystem};
 use crate::report::{HTML_FILE, write_report};
+use crate::{document::ScenarioDocument, units::UnitSystem};
 
 /// Long help of `leafwind report`.
 pub const LONG_ABOUT: &str = "Write the grower report of a scenario: report.html (plots embedded, \

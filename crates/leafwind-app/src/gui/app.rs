@@ -13,9 +13,7 @@ use super::compute::{
     BoundaryInput, BoundaryResult, LeafResult, MapInput, MapResult, SweepInput, SweepResult,
     compute_boundary, compute_map, compute_sweep,
 };
-use super::document::{EXAMPLES, ScenarioDocument, first_example};
 use super::export;
-use super::file_safety::FileStamp;
 use super::panels::about::{AboutPanel, CAUTIONS};
 use super::panels::boundary::BoundaryPanel;
 use super::panels::canopy::{CanopyInput, CanopyPanel, CanopyView, compute_canopy};
@@ -28,6 +26,8 @@ use super::panels::shape::ShapePanel;
 use super::panels::sweep::SweepPanel;
 use super::prefs::{PREFS_KEY, PlotTab, UiPrefs};
 use super::worker::Job;
+use crate::document::{EXAMPLES, ScenarioDocument, first_example};
+use crate::file_safety::FileStamp;
 
 /// How file names are asked for.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -242,7 +242,7 @@ impl LeafwindApp {
                 _ => PlotTab::Sweep,
             };
             if std::env::var("LEAFWIND_SCREENSHOT_UNITS").as_deref() == Ok("imperial") {
-                p.units = super::units::UnitSystem::Imperial;
+                p.units = crate::units::UnitSystem::Imperial;
             }
             p
         } else {
@@ -726,7 +726,7 @@ impl LeafwindApp {
                 item(ui, &mut pushed, Command::Quit);
             });
             ui.menu_button("View", |ui| {
-                let mut imperial = self.prefs.units == super::units::UnitSystem::Imperial;
+                let mut imperial = self.prefs.units == crate::units::UnitSystem::Imperial;
                 let c = Command::ToggleUnits;
                 if ui
                     .checkbox(&mut imperial, c.label())
@@ -1218,7 +1218,7 @@ impl LeafwindApp {
                         "Opened {} (format version {v}, updated to version {}; saving writes the \
                          new version).",
                         p.display(),
-                        super::document::DOCUMENT_VERSION
+                        crate::document::DOCUMENT_VERSION
                     )),
                     None => self.note(&format!("Opened {}.", p.display())),
                 }

@@ -12,7 +12,7 @@ use std::time::{Duration, Instant, SystemTime, UNIX_EPOCH};
 
 use serde::{Deserialize, Serialize};
 
-use super::document::ScenarioDocument;
+use crate::document::ScenarioDocument;
 
 /// Environment variable naming the data folder (overrides the default; for tests).
 pub const DATA_DIR_ENV: &str = "LEAFWIND_DATA_DIR";
@@ -143,7 +143,7 @@ impl Autosave {
         };
         let cfg = ron::ser::PrettyConfig::new().struct_names(true);
         let text = ron::ser::to_string_pretty(&file, cfg)?;
-        super::file_safety::write_atomic(&self.path(), text.as_bytes())?;
+        crate::file_safety::write_atomic(&self.path(), text.as_bytes())?;
         self.written = Some(doc.clone());
         self.pending_since = None;
         Ok(())
@@ -212,12 +212,12 @@ impl Autosave {
 /// # Errors
 /// Why it could not be read.
 pub fn read_autosave(text: &str) -> Result<AutosaveFile, String> {
-    let text = super::file_safety::strip_bom(text);
+    let text = crate::file_safety::strip_bom(text);
     let mut file: AutosaveFile = ron::from_str(text).map_err(|e| e.to_string())?;
-    if file.document.version > super::document::DOCUMENT_VERSION {
-        return Err(super::document::LoadError::Version(file.document.version).to_string());
+    if file.document.version > crate::document::DOCUMENT_VERSION {
+        return Err(crate::document::LoadError::Version(file.document.version).to_string());
     }
-    super::document::migrate(&mut file.document);
+    crate::document::migrate(&mut file.document);
     Ok(file)
 }
 
@@ -235,7 +235,7 @@ pub fn selftest_from_env() -> Option<ExitCode> {
             .map_err(|_| format!("{SELFTEST_ENV}={value}: not an air temperature"))?;
         let dir = data_dir().ok_or("no data folder: set LEAFWIND_DATA_DIR")?;
         let ctx = egui::Context::default();
-        let mut app = super::LeafwindApp::new_headless(super::document::first_example())
+        let mut app = super::LeafwindApp::new_headless(crate::document::first_example())
             .with_autosave(dir, Duration::from_millis(200));
         let mut doc = app.document().clone();
         doc.case.air.temp_c = temp_c;

@@ -5,7 +5,7 @@
 
 use std::path::PathBuf;
 
-use super::document::ScenarioDocument;
+use crate::document::ScenarioDocument;
 
 /// Which plot's data to export.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -82,7 +82,7 @@ impl Command {
             Self::New => "New".into(),
             Self::Open => "Open…".into(),
             Self::OpenPath(p) => p.display().to_string(),
-            Self::OpenExample(i) => super::document::EXAMPLES
+            Self::OpenExample(i) => crate::document::EXAMPLES
                 .get(*i)
                 .map_or_else(|| "Example".into(), |e| e.0.to_owned()),
             Self::Save => "Save".into(),

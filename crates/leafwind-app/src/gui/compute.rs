@@ -14,7 +14,7 @@ use leafwind_physics::{LeafCase, LeafSolution, WindAnswer, required_wind, solve_
 use rayon::prelude::*;
 
 use super::contour::{Polyline, iso_lines};
-use super::document::{MapQuantity, ScenarioDocument};
+use crate::document::{MapQuantity, ScenarioDocument};
 
 /// The single-leaf result: the exact balance and the least-air-speed answer.
 #[derive(Debug, Clone, PartialEq)]

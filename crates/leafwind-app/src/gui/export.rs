@@ -8,7 +8,7 @@ use anyhow::Context as _;
 
 use super::compute::{BoundaryResult, LeafResult, MapResult, SweepResult};
 use super::panels::result::budget_terms;
-use super::units::{Quantity, UnitSystem};
+use crate::units::{Quantity, UnitSystem};
 
 fn cell(x: f64) -> String {
     if x.is_finite() {

@@ -4,7 +4,7 @@
 use egui::{Align, Color32, Layout, Response, RichText, Slider, SliderClamping, Ui, vec2};
 use leafwind_physics::error::ValidRange;
 
-use super::units::{Quantity, UnitSystem};
+use crate::units::{Quantity, UnitSystem};
 
 /// Width of the label column of the inputs \[points\].
 pub const LABEL_WIDTH: f32 = 150.0;

@@ -2,17 +2,14 @@
 //!
 //! | module | what it owns |
 //! |---|---|
-//! | [`document`] | the scenario document (saved, RON) |
 //! | [`compute`] | derived results (never saved): leaf, sweep, map, boundary layer |
 //! | [`worker`] | background jobs that keep the frame free |
 //! | [`prefs`] | UI preferences persisted by eframe |
 //! | [`commands`] | the command enum (menu text, tooltip) |
-//! | [`units`] | SI ↔ imperial for every number shown |
 //! | [`fields`] | the numeric input widget with range check |
 //! | [`panels`] | one panel per file |
 //! | [`contour`] | marching squares for the map's limit lines |
 //! | [`export`] | CSV of each plot's data |
-//! | [`file_safety`] | atomic saves, on-disk stamps, range check with field paths |
 //! | [`autosave`] | crash recovery: autosave of unsaved edits, restore offer |
 //! | [`app`] | the app and its command handler |
 
@@ -26,13 +23,10 @@ pub mod autosave;
 pub mod commands;
 pub mod compute;
 pub mod contour;
-pub mod document;
 pub mod export;
 pub mod fields;
-pub mod file_safety;
 pub mod panels;
 pub mod prefs;
-pub mod units;
 pub mod worker;
 
 pub use app::LeafwindApp;

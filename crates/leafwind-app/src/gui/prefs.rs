@@ -4,7 +4,7 @@ use std::path::PathBuf;
 
 use serde::{Deserialize, Serialize};
 
-use super::units::UnitSystem;
+use crate::units::UnitSystem;
 
 /// Key of the preferences in eframe's storage.
 pub const PREFS_KEY: &str = "leafwind-prefs-v1";

@@ -25,9 +25,10 @@ use leafwind_physics::{Humidity, UpperView, WindAnswer, required_wind};
 
 use crate::canopy_scenario::CanopySizing;
 
-// The document, the derived results and the units live under `gui/` for now; when they move to
-// the crate root, this is the one line to change.
-use crate::gui::{compute, document, units};
+// The derived results (leaf, sweep, map) are the window's; the document and the units are the
+// crate's.
+use crate::gui::compute;
+use crate::{document, units};
 
 pub mod answer;
 pub mod extras;

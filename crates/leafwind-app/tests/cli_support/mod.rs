@@ -2,7 +2,7 @@
 
 use std::path::{Path, PathBuf};
 
-use leafwind_app::gui::document::ScenarioDocument;
+use leafwind_app::document::ScenarioDocument;
 
 /// A fresh scratch folder for one test (`kind`, `name` and the process id make it unique).
 pub fn temp_dir(kind: &str, name: &str) -> PathBuf {

@@ -7,7 +7,7 @@ use egui_plot::{Legend, Line, LineStyle, Plot, VLine};
 use crate::gui::commands::{Command, PlotKind};
 use crate::gui::compute::BoundaryResult;
 use crate::gui::panels::sweep::{PALETTE, hover_text};
-use crate::gui::units::{Quantity, UnitSystem};
+use crate::units::{Quantity, UnitSystem};
 
 /// State of the boundary-layer view.
 #[derive(Debug, Clone, Default)]

@@ -35,14 +35,14 @@ use leafwind_physics::{Humidity, LeafCase};
 use crate::canopy_scenario::{
     CanopyRun, CanopySection, CropChoice, GreenhouseSection, InsideMode, LightAbove,
 };
+use crate::document::ScenarioDocument;
 use crate::gui::commands::Command;
 use crate::gui::compute::LimitStatus;
-use crate::gui::document::ScenarioDocument;
 use crate::gui::fields::{
     ERROR_COLOUR, Field, error_line, field_label, name_widget, number_field, range_error,
 };
 use crate::gui::panels::sweep::{LIMIT_COLOUR, PALETTE, hover_text};
-use crate::gui::units::{Quantity, UnitSystem, fmt_num};
+use crate::units::{Quantity, UnitSystem, fmt_num};
 
 // ---------------------------------------------------------------------------------------------
 // The background job
@@ -2203,7 +2203,7 @@ mod tests {
     #[test]
     fn glasshouse_example_runs_and_has_no_non_finite_sentences() {
         // The shipped glasshouse example has a canopy section with a greenhouse and a design day.
-        let doc = crate::gui::document::first_example();
+        let doc = crate::document::first_example();
         let input = CanopyInput::of(&doc, None).expect("the example has a canopy section");
         let run = compute_canopy(&input).unwrap();
         for u in [UnitSystem::Si, UnitSystem::Imperial] {
@@ -2220,7 +2220,7 @@ mod tests {
         assert!((three_figures(61_072.4) - 61_100.0).abs() < 1e-6);
         assert!((three_figures(0.012_345) - 0.0123).abs() < 1e-12);
         assert_eq!(three_figures(0.0), 0.0);
-        let doc = crate::gui::document::first_example();
+        let doc = crate::document::first_example();
         let run = compute_canopy(&CanopyInput::of(&doc, None).unwrap()).unwrap();
         let v = run.ventilation.expect("under cover");
         let Some(rate) = v.check.for_leaf.rate_m3_m2_s() else {
@@ -2243,7 +2243,7 @@ mod tests {
 
     #[test]
     fn a_bad_section_is_an_error_not_a_panic() {
-        let mut doc = crate::gui::document::first_example();
+        let mut doc = crate::document::first_example();
         if let Some(c) = doc.canopy.as_mut() {
             c.structure.lai = -1.0;
         }

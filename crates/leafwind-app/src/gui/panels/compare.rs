@@ -16,14 +16,14 @@ use leafwind_physics::radiation::SHORTWAVE_RANGE_W_M2;
 use leafwind_physics::solve_leaf;
 use leafwind_physics::transpiration::{STOMATAL_CONDUCTANCE_RANGE_MOL_M2_S, mol_to_mmol};
 
+use crate::document::ScenarioDocument;
 use crate::gui::app::DialogMode;
 use crate::gui::compute::LeafResult;
-use crate::gui::document::ScenarioDocument;
 use crate::gui::fields::{error_line, name_widget};
 use crate::gui::panels::file_prompt::{FileAction, FilePrompt};
 use crate::gui::panels::sweep::{LIMIT_COLOUR, PALETTE, hover_text};
-use crate::gui::units::{Quantity, UnitSystem, fmt_num};
 use crate::gui::worker::Job;
+use crate::units::{Quantity, UnitSystem, fmt_num};
 
 /// Most entries compared at once.
 pub const MAX_ENTRIES: usize = 6;

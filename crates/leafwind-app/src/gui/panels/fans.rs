@@ -26,9 +26,9 @@ use leafwind_physics::fans::{
 use leafwind_physics::radiation::{SURFACE_TEMP_RANGE_C, UpperView};
 use leafwind_physics::{Humidity, LeafCase};
 
+use crate::document::ScenarioDocument;
 use crate::fans_scenario::{FansRun, FansSection, NightCheck};
 use crate::gui::commands::Command;
-use crate::gui::document::ScenarioDocument;
 use crate::gui::fields::{ERROR_COLOUR, Field, field_label, name_widget, number_field};
 use crate::gui::panels::canopy::{
     ExportPrompt, cell, count_field, export_prompt_ui, export_ui, head, humidity_field,
@@ -36,7 +36,7 @@ use crate::gui::panels::canopy::{
     write_csv,
 };
 use crate::gui::panels::sweep::{LIMIT_COLOUR, PALETTE, hover_text};
-use crate::gui::units::{Quantity, UnitSystem};
+use crate::units::{Quantity, UnitSystem};
 
 /// The one-line caution shown with every fan result.
 pub const FAN_CAUTION: &str = "Caution: fan and electrical installations follow local codes and are done by licensed electricians; guard fans within reach.";
@@ -1283,7 +1283,7 @@ mod tests {
 
     #[test]
     fn glasshouse_example_fans_run_has_all_answers() {
-        let doc = crate::gui::document::first_example();
+        let doc = crate::document::first_example();
         let input = FansInput::of(&doc, None).expect("the example has a fans section");
         let run = compute_fans(&input).unwrap();
         assert!(run.sizing.is_some() && run.night.is_some());

@@ -17,10 +17,10 @@ use leafwind_physics::transpiration::{
 };
 use leafwind_physics::{Humidity, UpperView};
 
+use crate::document::{HumidityKind, ScenarioDocument};
 use crate::gui::commands::Command;
-use crate::gui::document::{HumidityKind, ScenarioDocument};
 use crate::gui::fields::{Field, field_label, name_widget, number_field};
-use crate::gui::units::{Quantity, UnitSystem};
+use crate::units::{Quantity, UnitSystem};
 
 /// A stomatal preset: label, conductance \[mol m⁻² s⁻¹\], source.
 pub const STOMATAL_PRESETS: [(&str, f64, &str); 3] = [

@@ -8,11 +8,11 @@ use egui_plot::{
     GridInput, GridMark, Legend, Line, LineStyle, MarkerShape, Plot, PlotImage, PlotPoint, Points,
 };
 
+use crate::document::{MapQuantity, ScenarioDocument};
 use crate::gui::commands::{Command, PlotKind};
 use crate::gui::compute::{LeafResult, MapResult, colour};
-use crate::gui::document::{MapQuantity, ScenarioDocument};
 use crate::gui::panels::sweep::LIMIT_COLOUR;
-use crate::gui::units::{Quantity, UnitSystem, fmt_num};
+use crate::units::{Quantity, UnitSystem, fmt_num};
 
 /// State of the map panel: the texture of the last map.
 #[derive(Default)]

@@ -9,7 +9,7 @@ use leafwind_physics::transpiration::mol_to_mmol;
 
 use crate::gui::commands::{Command, PlotKind};
 use crate::gui::compute::{LeafResult, LimitStatus};
-use crate::gui::units::{Quantity, UnitSystem, fmt_num, fmt_sig};
+use crate::units::{Quantity, UnitSystem, fmt_num, fmt_sig};
 
 /// Colours of the budget terms.
 const SHORTWAVE: Color32 = Color32::from_rgb(235, 175, 50);

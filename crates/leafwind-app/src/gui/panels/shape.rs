@@ -15,15 +15,15 @@ use leafwind_physics::shape::{
     DEPTH_RANGE, LOBES_RANGE, OUTLINE_SIZE_RANGE_M, outline_from_csv_mm,
 };
 
+use crate::document::ScenarioDocument;
 use crate::gui::app::DialogMode;
 use crate::gui::commands::Command;
-use crate::gui::document::ScenarioDocument;
 use crate::gui::fields::{Field, error_line, field_label, name_widget, number_field, range_error};
 use crate::gui::panels::file_prompt::{FileAction, FilePrompt};
 use crate::gui::panels::sweep::hover_text;
-use crate::gui::units::{Quantity, UnitSystem, fmt_num};
 use crate::gui::worker::Job;
 use crate::shape_scenario::{ShapeFamily, ShapeReport, ShapeSection, measure};
+use crate::units::{Quantity, UnitSystem, fmt_num};
 
 /// Colour of the outline.
 const OUTLINE_COLOUR: Color32 = Color32::from_rgb(40, 130, 60);

@@ -5,10 +5,10 @@ use egui::{Color32, DragValue, RichText, Ui};
 use egui_plot::{HLine, HoverPosition, Legend, Line, LineStyle, MarkerShape, Plot, Points, VLine};
 use leafwind_physics::WindAnswer;
 
+use crate::document::{MAX_EXTRA_SIZES, ScenarioDocument};
 use crate::gui::commands::{Command, PlotKind};
 use crate::gui::compute::{LeafResult, SweepResult};
-use crate::gui::document::{MAX_EXTRA_SIZES, ScenarioDocument};
-use crate::gui::units::{Quantity, UnitSystem, fmt_num};
+use crate::units::{Quantity, UnitSystem, fmt_num};
 
 /// Curve colours, the current leaf size first.
 pub const PALETTE: [Color32; 7] = [

@@ -31,8 +31,8 @@ use leafwind_physics::greenhouse::{
 };
 use leafwind_physics::ventilation::RISE_RANGE_K;
 
-use super::document::{MAX_EXTRA_SIZES, SWEEP_MAX_RANGE_M_S, ScenarioDocument};
 use crate::canopy_scenario::{GreenhouseSection, InsideMode};
+use crate::document::{MAX_EXTRA_SIZES, SWEEP_MAX_RANGE_M_S, ScenarioDocument};
 
 // ----- atomic writes -----
 

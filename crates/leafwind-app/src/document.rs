@@ -5,7 +5,7 @@
 //! still load. Unknown fields are refused at every depth (a misspelt field name is an error with
 //! its line and column, not silently dropped); older format versions are migrated step by step
 //! ([`MIGRATIONS`]); every value is range-checked on load with the document path of its field
-//! ([`super::file_safety::validate_document`]); saves are atomic.
+//! ([`crate::file_safety::validate_document`]); saves are atomic.
 
 use std::fmt;
 use std::path::Path;
@@ -243,7 +243,7 @@ impl ScenarioDocument {
     /// As [`ScenarioDocument::from_ron`].
     pub fn from_ron_migrated(text: &str) -> Result<(Self, Option<u32>), LoadError> {
         let (doc, from) = Self::parse_unchecked(text)?;
-        super::file_safety::validate_document(&doc).map_err(|e| LoadError::Invalid {
+        crate::file_safety::validate_document(&doc).map_err(|e| LoadError::Invalid {
             path: e.path,
             message: e.message,
         })?;
@@ -256,7 +256,7 @@ impl ScenarioDocument {
     /// # Errors
     /// [`LoadError::Parse`] or [`LoadError::Version`].
     pub fn parse_unchecked(text: &str) -> Result<(Self, Option<u32>), LoadError> {
-        let text = super::file_safety::strip_bom(text);
+        let text = crate::file_safety::strip_bom(text);
         let mut doc: Self = ron::from_str(text).map_err(|e| LoadError::Parse {
             line: e.span.start.line,
             col: e.span.start.col,
@@ -295,7 +295,7 @@ impl ScenarioDocument {
         }
         let bytes = std::fs::read(path)
             .map_err(|e| LoadError::Io(format!("could not read {}: {e}", path.display())))?;
-        let stamp = super::file_safety::FileStamp::of(path, &bytes);
+        let stamp = crate::file_safety::FileStamp::of(path, &bytes);
         let text = String::from_utf8(bytes).map_err(|e| {
             LoadError::Io(format!(
                 "{} is not UTF-8 text (invalid byte at offset {})",
@@ -335,10 +335,10 @@ impl ScenarioDocument {
     ///
     /// # Errors
     /// Write failure, with the path.
-    pub fn save_stamped(&self, path: &Path) -> anyhow::Result<super::file_safety::FileStamp> {
+    pub fn save_stamped(&self, path: &Path) -> anyhow::Result<crate::file_safety::FileStamp> {
         let text = self.to_ron()?;
-        super::file_safety::write_atomic(path, text.as_bytes())?;
-        Ok(super::file_safety::FileStamp::of(path, text.as_bytes()))
+        crate::file_safety::write_atomic(path, text.as_bytes())?;
+        Ok(crate::file_safety::FileStamp::of(path, text.as_bytes()))
     }
 
     /// Every leaf size of the sweep: the current one first, then the extra ones \[m\] (valid only).
@@ -408,7 +408,7 @@ pub struct Loaded {
     /// The document (migrated and range-checked).
     pub doc: ScenarioDocument,
     /// What was on disk when it was read.
-    pub stamp: super::file_safety::FileStamp,
+    pub stamp: crate::file_safety::FileStamp,
     /// The format version it was migrated from, if it was older.
     pub migrated_from: Option<u32>,
 }
@@ -492,19 +492,19 @@ impl HumidityKind {
 pub const EXAMPLES: [(&str, &str); 4] = [
     (
         "glasshouse_still_afternoon.ron",
-        include_str!("../../../../scenarios/glasshouse_still_afternoon.ron"),
+        include_str!("../../../scenarios/glasshouse_still_afternoon.ron"),
     ),
     (
         "shade_house.ron",
-        include_str!("../../../../scenarios/shade_house.ron"),
+        include_str!("../../../scenarios/shade_house.ron"),
     ),
     (
         "open_field_hot_wind.ron",
-        include_str!("../../../../scenarios/open_field_hot_wind.ron"),
+        include_str!("../../../scenarios/open_field_hot_wind.ron"),
     ),
     (
         "nursery_seedlings.ron",
-        include_str!("../../../../scenarios/nursery_seedlings.ron"),
+        include_str!("../../../scenarios/nursery_seedlings.ron"),
     ),
 ];
 

@@ -11,6 +11,7 @@
 //! | [`units`] | SI ↔ imperial for every number shown or exported |
 //! | [`canopy_scenario`], [`fans_scenario`], [`shape_scenario`] | the document's optional sections and their runs |
 //! | [`report`] | the grower report (HTML + CSV) |
+//! | [`words`] | the canopy answers in sentences, in the user's units |
 //! | [`gui`] | the eframe window: panels, plots, background work |
 //!
 //! Everything but [`gui`] is free of drawing code; the commands and the report use it as the
@@ -26,3 +27,4 @@ pub mod output;
 pub mod report;
 pub mod shape_scenario;
 pub mod units;
+pub mod words;

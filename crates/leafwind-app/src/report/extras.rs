@@ -16,7 +16,7 @@ use super::tables::{CsvTable, csv_num, csv_opt, csv_q, head, show, show_opt, sho
 use super::text::{CANOPY_SOURCES, DESIGN_DAY_SOURCES, SIZING_SOURCES};
 use super::units::{Quantity, UnitSystem};
 use crate::canopy_scenario::CanopySizing;
-use crate::gui::panels::canopy::{shade_sentence, speed_sentence, ventilation_sentence};
+use crate::words::{shade_sentence, speed_sentence, ventilation_sentence};
 
 /// Heights in the canopy use the altitude unit (m or ft) with two decimals.
 const HEIGHT: Quantity = Quantity::Altitude;

@@ -32,11 +32,11 @@ use crate::gui::commands::Command;
 use crate::gui::fields::{ERROR_COLOUR, Field, field_label, name_widget, number_field};
 use crate::gui::panels::canopy::{
     ExportPrompt, cell, count_field, export_prompt_ui, export_ui, head, humidity_field,
-    inputs_column, missing_section_ui, num, section_toolbar, show, show_speed, status_line,
-    write_csv,
+    inputs_column, missing_section_ui, section_toolbar, status_line, write_csv,
 };
 use crate::gui::panels::sweep::{LIMIT_COLOUR, PALETTE, hover_text};
 use crate::units::{Quantity, UnitSystem};
+use crate::words::{num, show, show_speed};
 
 /// The one-line caution shown with every fan result.
 pub const FAN_CAUTION: &str = "Caution: fan and electrical installations follow local codes and are done by licensed electricians; guard fans within reach.";

@@ -82,6 +82,58 @@ pub fn hover_text(
     }
 }
 
+/// A sweep curve as plot points in `units`: air speed on x, `q` on y; missing values left out.
+fn curve_points(
+    speeds_m_s: &[f64],
+    values: &[Option<f64>],
+    q: Quantity,
+    units: UnitSystem,
+) -> Vec<[f64; 2]> {
+    speeds_m_s
+        .iter()
+        .zip(values)
+        .filter_map(|(&u, v)| {
+            v.map(|v| [Quantity::Speed.to_display(u, units), q.to_display(v, units)])
+        })
+        .collect()
+}
+
+/// The least air speed (when it lies within the sweep, up to `max_speed_m_s`) as a vertical line,
+/// and the current case as a diamond at height `current_y` (display units).
+fn least_speed_and_current(
+    p: &mut egui_plot::PlotUi<'_>,
+    r: &LeafResult,
+    max_speed_m_s: f64,
+    current_y: f64,
+    marker: Color32,
+    units: UnitSystem,
+) {
+    let sp = Quantity::Speed;
+    if let Ok(WindAnswer::Speed { speed_m_s, .. }) = r.wind
+        && speed_m_s <= max_speed_m_s
+    {
+        p.vline(
+            VLine::new(
+                format!("least air speed {}", sp.format(speed_m_s, units)),
+                sp.to_display(speed_m_s, units),
+            )
+            .color(LEAST_SPEED_COLOUR)
+            .style(LineStyle::dashed_dense())
+            .width(1.5),
+        );
+    }
+    p.points(
+        Points::new(
+            "current",
+            vec![[sp.to_display(r.case.air.speed_m_s, units), current_y]],
+        )
+        .shape(MarkerShape::Diamond)
+        .radius(7.0)
+        .color(marker)
+        .filled(true),
+    );
+}
+
 /// The colour of the "current" marker: the strongest text colour of the theme.
 #[must_use]
 pub fn current_marker_colour(ui: &Ui) -> Color32 {
@@ -194,14 +246,7 @@ impl SweepPanel {
             .label_formatter(move |p| hover_text(p, x_unit, y_unit, x_dec, 2))
             .show(ui, |p| {
                 for (i, c) in sweep.curves.iter().enumerate() {
-                    let pts: Vec<[f64; 2]> = c
-                        .speeds_m_s
-                        .iter()
-                        .zip(&c.diff_k)
-                        .filter_map(|(&u, d)| {
-                            d.map(|d| [sp.to_display(u, units), tq.to_display(d, units)])
-                        })
-                        .collect();
+                    let pts = curve_points(&c.speeds_m_s, &c.diff_k, tq, units);
                     p.line(
                         Line::new(size_name(c.size_m, i == 0, units), pts)
                             .color(PALETTE[i % PALETTE.len()])
@@ -240,31 +285,14 @@ impl SweepPanel {
                             .style(LineStyle::dashed_loose())
                             .width(1.0),
                     );
-                    if let Ok(WindAnswer::Speed { speed_m_s, .. }) = r.wind
-                        && speed_m_s <= sweep.curves[0].speeds_m_s.last().copied().unwrap_or(0.0)
-                    {
-                        p.vline(
-                            VLine::new(
-                                format!("least air speed {}", sp.format(speed_m_s, units)),
-                                sp.to_display(speed_m_s, units),
-                            )
-                            .color(LEAST_SPEED_COLOUR)
-                            .style(LineStyle::dashed_dense())
-                            .width(1.5),
-                        );
-                    }
-                    p.points(
-                        Points::new(
-                            "current",
-                            vec![[
-                                sp.to_display(r.case.air.speed_m_s, units),
-                                tq.to_display(r.solution.leaf_air_diff_k, units),
-                            ]],
-                        )
-                        .shape(MarkerShape::Diamond)
-                        .radius(7.0)
-                        .color(marker)
-                        .filled(true),
+                    let max_u = sweep.curves[0].speeds_m_s.last().copied().unwrap_or(0.0);
+                    least_speed_and_current(
+                        p,
+                        r,
+                        max_u,
+                        tq.to_display(r.solution.leaf_air_diff_k, units),
+                        marker,
+                        units,
                     );
                 }
             });
@@ -289,15 +317,8 @@ impl SweepPanel {
                     let col = PALETTE[i % PALETTE.len()];
                     let name = size_name(c.size_m, i == 0, units);
                     if self.show_delta99 {
-                        let pts: Vec<[f64; 2]> = c
-                            .speeds_m_s
-                            .iter()
-                            .zip(&c.delta99_m)
-                            .filter_map(|(&u, d)| {
-                                d.map(|d| [sp.to_display(u, units), th.to_display(d, units)])
-                            })
-                            .filter(|p| p[1] <= th.to_display(0.05, units))
-                            .collect();
+                        let mut pts = curve_points(&c.speeds_m_s, &c.delta99_m, th, units);
+                        pts.retain(|p| p[1] <= th.to_display(0.05, units));
                         p.line(
                             Line::new(format!("{name}: 99 %"), pts)
                                 .color(col)
@@ -305,14 +326,7 @@ impl SweepPanel {
                         );
                     }
                     if self.show_effective {
-                        let pts: Vec<[f64; 2]> = c
-                            .speeds_m_s
-                            .iter()
-                            .zip(&c.effective_m)
-                            .filter_map(|(&u, d)| {
-                                d.map(|d| [sp.to_display(u, units), th.to_display(d, units)])
-                            })
-                            .collect();
+                        let pts = curve_points(&c.speeds_m_s, &c.effective_m, th, units);
                         p.line(
                             Line::new(format!("{name}: k/h"), pts)
                                 .color(col)
@@ -324,32 +338,8 @@ impl SweepPanel {
                 if let Some(r) = current
                     && let Some(d) = r.solution.bl_thickness_m
                 {
-                    if let Ok(WindAnswer::Speed { speed_m_s, .. }) = r.wind
-                        && speed_m_s <= sweep.curves[0].speeds_m_s.last().copied().unwrap_or(0.0)
-                    {
-                        p.vline(
-                            VLine::new(
-                                format!("least air speed {}", sp.format(speed_m_s, units)),
-                                sp.to_display(speed_m_s, units),
-                            )
-                            .color(LEAST_SPEED_COLOUR)
-                            .style(LineStyle::dashed_dense())
-                            .width(1.5),
-                        );
-                    }
-                    p.points(
-                        Points::new(
-                            "current",
-                            vec![[
-                                sp.to_display(r.case.air.speed_m_s, units),
-                                th.to_display(d, units),
-                            ]],
-                        )
-                        .shape(MarkerShape::Diamond)
-                        .radius(7.0)
-                        .color(marker)
-                        .filled(true),
-                    );
+                    let max_u = sweep.curves[0].speeds_m_s.last().copied().unwrap_or(0.0);
+                    least_speed_and_current(p, r, max_u, th.to_display(d, units), marker, units);
                 }
             });
         commands

@@ -25,6 +25,7 @@
 //! | [`ventilation`] | the least ventilation rate; the standard's factor method |
 //! | [`crops`] | crop heat limits |
 //! | [`design_day`], [`weather`] | hourly design days and weather files |
+//! | [`heat_rules`] | rules with durations ("3 h above 40 °C on two days") over a series |
 //! | [`fans`], [`condensation`], [`cooling`] | air from fans, night dew, cooling options |
 //!
 //! Units: SI inside (K for absolute temperatures in formulas, °C at the component boundary, K for
@@ -50,6 +51,7 @@ pub mod canopy;
 pub mod crops;
 pub mod design_day;
 pub mod greenhouse;
+pub mod heat_rules;
 pub mod sun;
 pub mod ventilation;
 pub mod weather;

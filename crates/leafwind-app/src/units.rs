@@ -161,33 +161,32 @@ impl Quantity {
             return "–".to_owned();
         }
         let unit = self.unit(units);
+        let n = fmt_num(v, decimals);
         if unit.is_empty() {
-            format!("{v:.decimals$}")
+            n
         } else {
-            format!("{v:.decimals$} {unit}")
+            format!("{n} {unit}")
         }
     }
 
     /// The number only, in `units`; "–" when not finite.
     #[must_use]
     pub fn number(self, si: f64, units: UnitSystem) -> String {
-        let v = self.to_display(si, units);
-        let d = self.decimals(units);
-        if v.is_finite() {
-            format!("{v:.d$}")
-        } else {
-            "–".to_owned()
-        }
+        fmt_num(self.to_display(si, units), self.decimals(units))
     }
 }
 
-/// Formats any number for display, never as "NaN" or "inf".
+/// Formats any number for display, never as "NaN" or "inf", and never as "-0.0": a value that
+/// rounds to zero at `decimals` is shown without a sign.
 #[must_use]
 pub fn fmt_num(x: f64, decimals: usize) -> String {
-    if x.is_finite() {
-        format!("{x:.decimals$}")
-    } else {
-        "–".to_owned()
+    if !x.is_finite() {
+        return "–".to_owned();
+    }
+    let s = format!("{x:.decimals$}");
+    match s.strip_prefix('-') {
+        Some(rest) if rest.chars().all(|c| c == '0' || c == '.') => rest.to_owned(),
+        _ => s,
     }
 }
 
@@ -250,6 +249,18 @@ mod tests {
         assert!((Quantity::VentilationRate.from_display(8.0, im) - 0.040_64).abs() < 1e-5);
         // Standard atmosphere 101.325 kPa = 29.92 inHg (from memory).
         assert!((Quantity::Pressure.to_display(101.325, im) - 29.92).abs() < 0.005);
+    }
+
+    #[test]
+    fn never_prints_negative_zero() {
+        assert_eq!(fmt_num(-0.04, 1), "0.0");
+        assert_eq!(fmt_num(-0.0, 0), "0");
+        assert_eq!(fmt_num(-0.06, 1), "-0.1");
+        assert_eq!(Quantity::TempDiff.format(-0.01, UnitSystem::Si), "0.0 K");
+        assert_eq!(
+            Quantity::TempDiff.number(-0.01, UnitSystem::Imperial),
+            "0.0"
+        );
     }
 
     #[test]

@@ -21,10 +21,32 @@ pub fn harness(doc: ScenarioDocument) -> Harness<'static, LeafwindApp> {
     h
 }
 
-/// Every label and value in the tree that shows a non-finite number.
+/// Whether `s` shows a negative zero ("-0.0", "-0 K", "−0.0"…).
+fn negative_zero(s: &str) -> bool {
+    let chars: Vec<char> = s.chars().collect();
+    chars.windows(2).enumerate().any(|(i, w)| {
+        (w[0] == '-' || w[0] == '−')
+            && w[1] == '0'
+            && (i == 0 || !chars[i - 1].is_alphanumeric())
+            && {
+                // the number after the sign is all zeros
+                let rest: String = chars[i + 1..]
+                    .iter()
+                    .take_while(|c| c.is_ascii_digit() || **c == '.')
+                    .collect();
+                rest.chars().all(|c| c == '0' || c == '.')
+            }
+    })
+}
+
+/// Every label and value in the tree that shows a non-finite number or a negative zero.
 pub fn non_finite_texts(h: &Harness<'_, LeafwindApp>) -> Vec<String> {
-    let bad =
-        |s: &str| s.contains("NaN") || s.contains("inf") && !s.contains("info") || s.contains("∞");
+    let bad = |s: &str| {
+        s.contains("NaN")
+            || s.contains("inf") && !s.contains("info")
+            || s.contains("∞")
+            || negative_zero(s)
+    };
     h.query_all_by(move |n| {
         n.label().is_some_and(|l| bad(&l)) || n.value().is_some_and(|v| bad(&v))
     })

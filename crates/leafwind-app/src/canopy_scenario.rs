@@ -22,6 +22,7 @@ use leafwind_physics::design_day::{
 use leafwind_physics::greenhouse::{
     self, Cover, GreenhouseCase, InsideAir, Outside, ShadeAnswer, VENTILATION_DEFAULT_M3_M2_S,
 };
+use leafwind_physics::heat_rules::{self, HeatRule, RuleOutcome};
 use leafwind_physics::sun::{self, DateTime, HorizontalShortwave, Site};
 use leafwind_physics::ventilation::{self, VentilationCheck};
 use leafwind_physics::weather;
@@ -154,6 +155,10 @@ pub struct CanopySection {
     /// Upper end of the canopy-top air speed search \[m s⁻¹\].
     #[serde(default = "default_search_max")]
     pub max_search_speed_m_s: f64,
+    /// Heat rules with durations ("3 h above 40 °C on two days"), checked over the design day and
+    /// the weather file.
+    #[serde(default)]
+    pub heat_rules: Vec<HeatRule>,
 }
 
 impl Default for CanopySection {
@@ -169,6 +174,7 @@ impl Default for CanopySection {
             design_day: None,
             weather_csv: None,
             max_search_speed_m_s: CANOPY_SEARCH_MAX_DEFAULT_M_S,
+            heat_rules: Vec::new(),
         }
     }
 }
@@ -200,6 +206,10 @@ pub struct CanopyRun {
     pub design_day: Option<HourlySeries>,
     /// Hour by hour over the weather file, if the section names one, with its bad rows.
     pub weather: Option<(HourlySeries, Vec<weather::RowError>)>,
+    /// The section's heat rules checked over the design day (one per rule; empty without one).
+    pub design_day_rules: Vec<RuleOutcome>,
+    /// The section's heat rules checked over the weather file (one per rule; empty without one).
+    pub weather_rules: Vec<RuleOutcome>,
     /// Over the design day: hours with the crop's leaves (at the scenario's air speed, with what
     /// the scenario's leaf sees above) below the dew point and below it plus the margin.
     pub dew: Option<DewSeries>,
@@ -420,6 +430,17 @@ impl CanopySection {
             }
             None => None,
         };
+        let rules_over = |s: Option<&HourlySeries>| -> Result<Vec<RuleOutcome>> {
+            let Some(s) = s else {
+                return Ok(Vec::new());
+            };
+            self.heat_rules
+                .iter()
+                .map(|r| Ok(heat_rules::check_rule(r, s)?))
+                .collect()
+        };
+        let design_day_rules = rules_over(design_day.as_ref())?;
+        let weather_rules = rules_over(weather.as_ref().map(|(s, _)| s))?;
         let dew = match &self.design_day {
             Some(day) => {
                 let hours = design_day::design_day_weather(day, &self.site)?;
@@ -449,6 +470,8 @@ impl CanopySection {
             ventilation,
             design_day,
             weather,
+            design_day_rules,
+            weather_rules,
             dew,
             cooling,
         })

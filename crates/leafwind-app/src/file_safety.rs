@@ -343,6 +343,10 @@ pub fn validate_document(doc: &ScenarioDocument) -> Result<(), FieldError> {
         if let Some(g) = &c.greenhouse {
             validate_greenhouse(g)?;
         }
+        for (i, r) in c.heat_rules.iter().enumerate() {
+            r.validate()
+                .map_err(|e| field_error(&format!("canopy.heat_rules[{i}]"), &e, None))?;
+        }
     }
     if let Some(f) = &doc.fans {
         f.layout

@@ -5,6 +5,7 @@
 use leafwind_physics::canopy::{SpeedAnswer, SpeedObstacle};
 use leafwind_physics::fans::{m3_s_to_cfm, m3_s_to_m3_h};
 use leafwind_physics::greenhouse::ShadeAnswer;
+use leafwind_physics::heat_rules::{RuleOutcome, Verdict};
 use leafwind_physics::ventilation::{VentilationAnswer, VentilationTarget};
 
 use crate::canopy_scenario::VentilationRun;
@@ -224,5 +225,37 @@ fn target_c(target: VentilationTarget) -> f64 {
     match target {
         VentilationTarget::HottestLeaf { limit_c, margin_k } => limit_c - margin_k,
         VentilationTarget::InsideRise { .. } => f64::NAN,
+    }
+}
+
+/// A heat rule checked over a series (`over`: "the design day", "the weather file"), in one
+/// sentence in `units`.
+#[must_use]
+pub fn rule_sentence(o: &RuleOutcome, over: &str, units: UnitSystem) -> String {
+    let rule = o
+        .rule
+        .words_with(&show(Quantity::Temperature, o.rule.above_c, units));
+    let most = o.most_hours_in_a_day();
+    let unsolved = match o.unsolved_hours() {
+        0 => String::new(),
+        n => format!(" ({n} h could not be solved and are not counted)"),
+    };
+    let date = |(y, m, d): (i32, u32, u32)| format!("{y:04}-{m:02}-{d:02}");
+    match o.verdict {
+        Verdict::Met => format!(
+            "Rule “{rule}”: met over {over}{} — {} days meet the daily condition, at most {} in a row; the most in one day is {most} h.{unsolved}",
+            o.first_met
+                .map_or(String::new(), |d| format!(", completed on {}", date(d))),
+            o.days_meeting,
+            o.longest_day_run,
+        ),
+        Verdict::DailyConditionOnly => format!(
+            "Rule “{rule}”: {over} meets the daily condition ({most} h above), but is shorter than the {} days the rule needs — it would be met if such days went on.{unsolved}",
+            o.rule.days
+        ),
+        Verdict::NotMet => format!(
+            "Rule “{rule}”: not met over {over} — {} days meet the daily condition, at most {} in a row; the most in one day is {most} h.{unsolved}",
+            o.days_meeting, o.longest_day_run,
+        ),
     }
 }

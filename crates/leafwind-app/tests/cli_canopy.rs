@@ -11,8 +11,10 @@ use leafwind_app::canopy_scenario::{CanopySection, GreenhouseSection, InsideMode
 use leafwind_app::cli::canopy::{CanopyArgs, run};
 use leafwind_app::document::ScenarioDocument;
 use leafwind_physics::Humidity;
+use leafwind_physics::crops::LimitKind;
 use leafwind_physics::design_day::DesignDay;
 use leafwind_physics::greenhouse::Cover;
+use leafwind_physics::heat_rules::HeatRule;
 
 fn temp_dir(name: &str) -> PathBuf {
     cli_support::temp_dir("canopy", name)
@@ -42,6 +44,14 @@ fn hot_field() -> ScenarioDocument {
     doc.margin_k = 1.0;
     doc.canopy = Some(CanopySection {
         design_day: Some(DesignDay::default()),
+        heat_rules: vec![HeatRule {
+            temperature: LimitKind::Air,
+            above_c: 20.0,
+            hours: 2,
+            hours_in_a_row: true,
+            days: 1,
+            days_in_a_row: false,
+        }],
         ..CanopySection::default()
     });
     doc
@@ -105,6 +115,16 @@ fn open_field_json_has_the_documented_keys_and_a_design_day() {
     assert!(v["dew_hours_below_dew_point"].as_f64().unwrap() >= 0.0);
     assert!(v["cooling_options"].as_array().unwrap().is_empty());
     assert!(day["degree_hours_over_limit"].as_f64().unwrap() >= 0.0);
+    // The heat rule over the design day: every design day has two hours in a row above 20 °C.
+    let rule = &day["heat_rules"][0];
+    assert_eq!(
+        rule["rule"],
+        "2 h in a row above 20.0 °C (air around the crop) on a day"
+    );
+    assert_eq!(rule["verdict"], "met");
+    assert_eq!(rule["days_meeting"], 1);
+    assert!(rule["first_met"].as_str().unwrap().starts_with("20"));
+    assert!(rule["most_hours_in_a_day"].as_u64().unwrap() >= 2);
     // The hottest leaf is the one the layers say.
     let layer = v["hottest_layer"].as_u64().unwrap() as usize;
     let l = &v["layers"][layer];

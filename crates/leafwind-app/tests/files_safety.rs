@@ -160,6 +160,11 @@ fn values_of_every_section_are_checked() {
             "inside: ScenarioAir, design_rise_k: 0.0,",
             "canopy.greenhouse.design_rise_k",
         ),
+        (
+            "above_c: 30.0, hours: 4,",
+            "above_c: 30.0, hours: 40,",
+            "canopy.heat_rules[1]",
+        ),
     ];
     for (from, to, path) in cases {
         let text = full_example();

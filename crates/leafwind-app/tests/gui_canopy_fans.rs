@@ -321,6 +321,45 @@ fn ventilation_is_answered_and_typed_in_cfm_per_square_foot_when_imperial() {
     assert_no_non_finite(&h);
 }
 
+/// The glasshouse example's heat rules are stated over the design day; "Add a heat rule" adds one
+/// as an unsaved edit, and its hours are set by their label.
+#[test]
+fn heat_rules_are_stated_added_and_edited_in_the_canopy_tab() {
+    let mut h = harness(glasshouse());
+    h.state_mut().set_tab(PlotTab::Canopy);
+    h.run();
+    let rules = |h: &egui_kittest::Harness<'_, leafwind_app::gui::LeafwindApp>| {
+        h.state()
+            .document()
+            .canopy
+            .as_ref()
+            .map_or(0, |c| c.heat_rules.len())
+    };
+    let before = rules(&h);
+    assert!(before >= 1, "the example has rules");
+    assert!(has_text(&h, "Rule “"));
+    assert!(has_text(&h, "over the design day") || has_text(&h, "the design day meets"));
+    h.get_by_label("Add a heat rule").click();
+    h.run();
+    assert_eq!(rules(&h), before + 1);
+    assert!(h.state().is_dirty());
+    let last = h.query_all_by_label("Rule hours").count();
+    assert_eq!(last, before + 1);
+    h.query_all_by_label("Rule hours")
+        .last()
+        .unwrap()
+        .set_value_accesskit(6.0);
+    h.run();
+    let hours = h.state().document().canopy.as_ref().unwrap().heat_rules[before].hours;
+    assert_eq!(hours, 6);
+    assert_no_non_finite(&h);
+    // Imperial: the threshold is shown in °F.
+    h.state_mut().push_command(Command::ToggleUnits);
+    h.run();
+    assert!(has_text(&h, "°F (air around the crop)") || has_text(&h, "°F (hottest leaf)"));
+    assert_no_non_finite(&h);
+}
+
 #[test]
 fn the_open_field_example_canopy_has_no_shade_answer_and_says_why() {
     let (_, text) = leafwind_app::document::EXAMPLES

@@ -16,6 +16,7 @@ use leafwind_app::report::{
 use leafwind_app::units::{Quantity, UnitSystem};
 use leafwind_physics::canopy::{CanopyCase, solve_canopy};
 use leafwind_physics::design_day::{DesignDay, SeriesCase, run};
+use leafwind_physics::heat_rules::{HeatRule, Verdict, check_rule};
 use leafwind_physics::required_wind::SEARCH_MAX_SPEED_DEFAULT_M_S;
 use leafwind_physics::{WindAnswer, required_wind, solve_leaf};
 use proptest::prelude::*;
@@ -373,6 +374,7 @@ fn optional_sections_appear_with_their_engine_inputs() {
         canopy: Some(canopy),
         design_day: Some((DesignDay::default(), SeriesCase::default())),
         sizing: None,
+        heat_rules: vec![HeatRule::default()],
     };
     let dir = out_dir("extras");
     let files = write_report_with(doc, &extras, &dir, UnitSystem::Si).unwrap();
@@ -388,6 +390,16 @@ fn optional_sections_appear_with_their_engine_inputs() {
     assert!((si_of(&html, "canopy-hottest").unwrap() - c.hottest.leaf_temp_c).abs() < 1e-9);
     let d = run(&DesignDay::default(), &SeriesCase::default()).unwrap();
     assert_eq!(si_of(&html, "day-hours-over").unwrap(), d.hours_over_limit);
+    // The heat rule is stated over the day with the engine's verdict.
+    let rule = text(by_id(&html, "day-rule-0"));
+    let o = check_rule(&HeatRule::default(), &d).unwrap();
+    assert!(rule.starts_with("Rule “3 h above 40.0 °C"), "{rule}");
+    let word = match o.verdict {
+        Verdict::Met => "met over",
+        Verdict::NotMet => "not met",
+        Verdict::DailyConditionOnly => "daily condition",
+    };
+    assert!(rule.contains(word), "{rule}");
     // Their plots have axis titles with units, and their CSVs are written.
     for (fig, axes) in [
         (
@@ -470,6 +482,7 @@ fn a_failed_optional_section_says_why_and_the_rest_stands() {
         canopy: Some(bad),
         design_day: None,
         sizing: Some(Err("an invented failure".to_owned())),
+        heat_rules: Vec::new(),
     };
     let r = build_report(doc, &extras, UnitSystem::Si).unwrap();
     let html = Html::parse_document(&r.html);

@@ -7,12 +7,14 @@ use std::process::ExitCode;
 
 use anyhow::{Result, anyhow};
 use clap::Args;
+use leafwind_physics::heat_rules::{RuleOutcome, Verdict};
 use leafwind_physics::sun::{self, DateTime};
 use serde::Serialize;
 
 use crate::canopy_scenario::{CanopyRun, CoolingTable, FAN_POWER_DEFAULT_W_M2};
 use crate::document::ScenarioDocument;
 use crate::output::finite;
+use crate::words::no_negative_zero;
 
 /// Arguments of `leafwind canopy`.
 #[derive(Debug, Clone, Args)]
@@ -80,6 +82,47 @@ pub struct SeriesRecord {
     pub failed_hours: usize,
     /// Rows of the weather file that were rejected, as "line N, column C: reason".
     pub rejected_rows: Vec<String>,
+    /// The scenario's heat rules checked over this series.
+    pub heat_rules: Vec<RuleRecord>,
+}
+
+/// A heat rule checked over a series.
+#[derive(Debug, Clone, Serialize)]
+pub struct RuleRecord {
+    /// The rule in words (°C).
+    pub rule: String,
+    /// "met", "not met", or "daily condition only" (the series is shorter than the days asked for
+    /// and every day of it meets the daily condition).
+    pub verdict: String,
+    /// Days meeting the daily condition.
+    pub days_meeting: u32,
+    /// Longest run of days in a row meeting it.
+    pub longest_day_run: u32,
+    /// The date that completes the rule (YYYY-MM-DD), or null.
+    pub first_met: Option<String>,
+    /// Most hours above the threshold on one day \[h\].
+    pub most_hours_in_a_day: u32,
+    /// Hours that could not be solved (not counted as above).
+    pub unsolved_hours: u32,
+}
+
+impl RuleRecord {
+    fn of(o: &RuleOutcome) -> Self {
+        Self {
+            rule: o.rule.words(),
+            verdict: match o.verdict {
+                Verdict::Met => "met",
+                Verdict::NotMet => "not met",
+                Verdict::DailyConditionOnly => "daily condition only",
+            }
+            .to_owned(),
+            days_meeting: o.days_meeting,
+            longest_day_run: o.longest_day_run,
+            first_met: o.first_met.map(|(y, m, d)| format!("{y:04}-{m:02}-{d:02}")),
+            most_hours_in_a_day: o.most_hours_in_a_day(),
+            unsolved_hours: o.unsolved_hours(),
+        }
+    }
 }
 
 /// The whole answer of `leafwind canopy`.
@@ -177,6 +220,7 @@ fn series_record(
     series: &leafwind_physics::design_day::HourlySeries,
     site: &sun::Site,
     rejected: &[leafwind_physics::weather::RowError],
+    rules: &[RuleOutcome],
 ) -> SeriesRecord {
     let steps = series
         .hours
@@ -202,6 +246,7 @@ fn series_record(
         min_margin_k: series.min_margin_k.and_then(finite),
         failed_hours: series.failed_hours,
         rejected_rows: rejected.iter().map(ToString::to_string).collect(),
+        heat_rules: rules.iter().map(RuleRecord::of).collect(),
     }
 }
 
@@ -256,11 +301,14 @@ impl CanopyRecord {
                     shaded_leaf_temp_c: l.shaded_leaf_temp_c,
                 })
                 .collect(),
-            design_day: run.design_day.as_ref().map(|s| series_record(s, site, &[])),
+            design_day: run
+                .design_day
+                .as_ref()
+                .map(|s| series_record(s, site, &[], &run.design_day_rules)),
             weather: run
                 .weather
                 .as_ref()
-                .map(|(s, bad)| series_record(s, site, bad)),
+                .map(|(s, bad)| series_record(s, site, bad, &run.weather_rules)),
             dew_hours_below_dew_point: run.dew.as_ref().map(|d| d.hours_below_dew_point),
             dew_hours_below_margin: run.dew.as_ref().map(|d| d.hours_below_margin),
             dew_margin_k: run.dew.as_ref().map(|d| d.margin_k),
@@ -356,7 +404,7 @@ pub fn run(args: &CanopyArgs, out: &mut impl Write) -> Result<ExitCode> {
         r.hottest_layer,
         r.limit_c,
         r.limit_kind,
-        r.margin_k
+        no_negative_zero(r.margin_k, 1)
     )?;
     writeln!(out, "Air speed: {}", r.required_wind_reason)?;
     writeln!(out, "Shade: {}", r.required_shade_fraction_reason)?;
@@ -399,11 +447,28 @@ pub fn run(args: &CanopyArgs, out: &mut impl Write) -> Result<ExitCode> {
                 "{name}: {:.0} h over the limit, {:.1} K·h over it, smallest margin {}",
                 s.hours_over_limit,
                 s.degree_hours_over_limit,
-                s.min_margin_k
-                    .map_or("—".to_owned(), |m| format!("{m:+.1} K"))
+                s.min_margin_k.map_or("—".to_owned(), |m| format!(
+                    "{:+.1} K",
+                    no_negative_zero(m, 1)
+                ))
             )?;
             for row in &s.rejected_rows {
                 writeln!(out, "  rejected {row}")?;
+            }
+            for rule in &s.heat_rules {
+                let when = rule
+                    .first_met
+                    .as_ref()
+                    .map_or(String::new(), |d| format!(", completed on {d}"));
+                writeln!(
+                    out,
+                    "  rule \"{}\": {} ({} days meet the daily condition, {} in a row at most; most in a day {} h{when})",
+                    rule.rule,
+                    rule.verdict,
+                    rule.days_meeting,
+                    rule.longest_day_run,
+                    rule.most_hours_in_a_day
+                )?;
             }
         }
     }

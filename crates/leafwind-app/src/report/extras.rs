@@ -16,7 +16,8 @@ use super::tables::{CsvTable, csv_num, csv_opt, csv_q, head, show, show_opt, sho
 use super::text::{CANOPY_SOURCES, DESIGN_DAY_SOURCES, SIZING_SOURCES};
 use super::units::{Quantity, UnitSystem};
 use crate::canopy_scenario::CanopySizing;
-use crate::words::{shade_sentence, speed_sentence, ventilation_sentence};
+use crate::words::{rule_sentence, shade_sentence, speed_sentence, ventilation_sentence};
+use leafwind_physics::heat_rules::{HeatRule, check_rule};
 
 /// Heights in the canopy use the altitude unit (m or ft) with two decimals.
 const HEIGHT: Quantity = Quantity::Altitude;
@@ -243,9 +244,16 @@ fn canopy_from_solution(
 /// The design-day section: 24 clear-sky hours of the hottest leaf against the crop's heat limit,
 /// with the hours and degree-hours over it.
 #[must_use]
-pub fn design_day_section(day: &DesignDay, case: &SeriesCase, units: UnitSystem) -> Section {
+///
+/// `rules`: the scenario's heat rules with durations, each stated in one sentence over the day.
+pub fn design_day_section(
+    day: &DesignDay,
+    case: &SeriesCase,
+    rules: &[HeatRule],
+    units: UnitSystem,
+) -> Section {
     match run(day, case) {
-        Ok(s) => design_day_from_series(day, &s, units).unwrap_or_else(|e| {
+        Ok(s) => design_day_from_series(day, &s, rules, units).unwrap_or_else(|e| {
             failed("design-day", "Design day", "design day", &format!("{e:#}"))
         }),
         Err(e) => failed("design-day", "Design day", "design day", &e.to_string()),
@@ -255,6 +263,7 @@ pub fn design_day_section(day: &DesignDay, case: &SeriesCase, units: UnitSystem)
 fn design_day_from_series(
     day: &DesignDay,
     s: &HourlySeries,
+    rules: &[HeatRule],
     units: UnitSystem,
 ) -> anyhow::Result<Section> {
     let tq = Quantity::Temperature;
@@ -293,6 +302,16 @@ fn design_day_from_series(
         body.push_str(&format!(
             "<p class=\"warning\">{} hour(s) could not be solved and are left out.</p>\n",
             s.failed_hours
+        ));
+    }
+    for (i, r) in rules.iter().enumerate() {
+        let sentence = match check_rule(r, s) {
+            Ok(o) => rule_sentence(&o, "the design day", units),
+            Err(e) => format!("Rule {}: {e}.", i + 1),
+        };
+        body.push_str(&format!(
+            "<p class=\"rule\" id=\"day-rule-{i}\">{}</p>\n",
+            esc(&sentence)
         ));
     }
     let hour = |h: &HourResult| f64::from(h.time.hour) + f64::from(h.time.minute) / 60.0;

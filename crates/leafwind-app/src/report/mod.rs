@@ -24,6 +24,7 @@ use leafwind_physics::required_wind::SEARCH_MAX_SPEED_DEFAULT_M_S;
 use leafwind_physics::{Humidity, UpperView, WindAnswer, required_wind};
 
 use crate::canopy_scenario::CanopySizing;
+use leafwind_physics::heat_rules::HeatRule;
 
 // The derived results (leaf, sweep, map) are the window's; the document and the units are the
 // crate's.
@@ -67,6 +68,8 @@ pub struct ReportExtras {
     pub design_day: Option<(DesignDay, SeriesCase)>,
     /// The canopy sizing answers at the section's moment, or why they could not be found.
     pub sizing: Option<Result<CanopySizing, String>>,
+    /// Heat rules with durations to state over the design day.
+    pub heat_rules: Vec<HeatRule>,
 }
 
 /// One section of the report.
@@ -143,6 +146,7 @@ pub fn extras_for(doc: &ScenarioDocument) -> ReportExtras {
                     .sizing(&doc.case, doc.heat_limit_c, doc.margin_k)
                     .map_err(|e| format!("{e:#}")),
             ),
+            heat_rules: section.heat_rules.clone(),
         },
     }
 }
@@ -214,7 +218,7 @@ pub fn build_report(
         sections.push(sizing_section(s, house, units));
     }
     if let Some((day, case)) = &extras.design_day {
-        sections.push(design_day_section(day, case, units));
+        sections.push(design_day_section(day, case, &extras.heat_rules, units));
     }
     let tables: Vec<CsvTable> = sections.iter().flat_map(|s| s.tables.clone()).collect();
     let mut sources: Vec<Source> = text::LEAF_SOURCES.to_vec();

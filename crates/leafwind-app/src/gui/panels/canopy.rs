@@ -20,13 +20,15 @@ use leafwind_physics::design_day::{DayHumidity, DesignDay, HourlySeries};
 
 use crate::canopy_scenario::CoolingTable;
 use crate::words::{
-    no_negative_zero, num, shade_sentence, show, show_speed, speed_sentence, ventilation_sentence,
+    no_negative_zero, num, rule_sentence, shade_sentence, show, show_speed, speed_sentence,
+    ventilation_sentence,
 };
 use leafwind_physics::error::ValidRange;
 use leafwind_physics::greenhouse::{
     CoverTemperature, HEAT_LOSS_RANGE_W_M2_K, SHADE_FRACTION_RANGE, TRANSMITTANCE_RANGE,
     VENTILATION_DEFAULT_M3_M2_S, VENTILATION_RANGE_M3_M2_S,
 };
+use leafwind_physics::heat_rules::HeatRule;
 use leafwind_physics::radiation::{SHORTWAVE_RANGE_W_M2, SURFACE_TEMP_RANGE_C};
 use leafwind_physics::sun::{
     DateTime, LATITUDE_RANGE_DEG, LONGITUDE_RANGE_DEG, UTC_OFFSET_RANGE_H, days_in_month,
@@ -625,6 +627,14 @@ impl CanopyPanel {
         if let Some((what, s)) = series {
             ui.add_space(6.0);
             series_block(ui, what, s, units);
+            for (over, rules) in [
+                ("the design day", &run.design_day_rules),
+                ("the weather file", &run.weather_rules),
+            ] {
+                for o in rules {
+                    ui.label(RichText::new(rule_sentence(o, over, units)).strong());
+                }
+            }
             if let Some((_, errs)) = &run.weather
                 && !errs.is_empty()
             {
@@ -987,6 +997,9 @@ fn section_inputs(
     });
     group(ui, "Crop heat limit", true, |ui| {
         crop_limit_row(ui, c, own_limit_c, units);
+    });
+    group(ui, "Heat rules", !c.heat_rules.is_empty(), |ui| {
+        heat_rules_editor(ui, c, units);
     });
     group(ui, "Design day", true, |ui| {
         let mut on = c.design_day.is_some();
@@ -1451,6 +1464,71 @@ fn own_limits_editor(ui: &mut Ui, c: &mut CanopySection, units: UnitSystem) {
     });
 }
 
+/// The heat rules with durations: one row each, read as the grower says it ("3 h above 40 °C
+/// (air) on 2 days"), with "in a row" for the hours and for the days.
+fn heat_rules_editor(ui: &mut Ui, c: &mut CanopySection, units: UnitSystem) {
+    ui.label(
+        RichText::new("Rules with durations, as your crop adviser or your records state them, checked over the design day and the weather file. Thresholds and durations are yours (common practice, no source).")
+            .small()
+            .weak(),
+    );
+    let tq = Quantity::Temperature;
+    let mut remove = None;
+    for (i, r) in c.heat_rules.iter_mut().enumerate() {
+        ui.push_id(("heat-rule", i), |ui| {
+            ui.horizontal_wrapped(|ui| {
+                let h = ui.add(egui::DragValue::new(&mut r.hours).range(1..=24).suffix(" h"));
+                name_widget(ui, &h, "Rule hours");
+                ui.checkbox(&mut r.hours_in_a_row, "in a row")
+                    .on_hover_text("On: the hours must be one unbroken run within a day. Off: they are added up over the day.");
+                ui.label("above");
+                let mut shown = tq.to_display(r.above_c, units);
+                let t = ui.add(
+                    egui::DragValue::new(&mut shown)
+                        .speed(0.1)
+                        .fixed_decimals(1)
+                        .suffix(format!(" {}", tq.unit(units))),
+                );
+                name_widget(ui, &t, "Rule threshold");
+                if t.changed() && shown.is_finite() {
+                    r.above_c = tq.from_display(shown, units);
+                }
+                let k = egui::ComboBox::from_id_salt("rule-kind")
+                    .selected_text(match r.temperature {
+                        LimitKind::Air => "air",
+                        LimitKind::Tissue => "hottest leaf",
+                    })
+                    .show_ui(ui, |ui| {
+                        ui.selectable_value(&mut r.temperature, LimitKind::Air, "air around the crop");
+                        ui.selectable_value(&mut r.temperature, LimitKind::Tissue, "hottest leaf");
+                    });
+                name_widget(ui, &k.response, "Rule temperature");
+                ui.label("on");
+                let d = ui.add(egui::DragValue::new(&mut r.days).range(1..=366).suffix(" days"));
+                name_widget(ui, &d, "Rule days");
+                ui.checkbox(&mut r.days_in_a_row, "in a row")
+                    .on_hover_text("On: the days must follow one another. Off: they are counted over the whole series.");
+                if ui.small_button("Remove").clicked() {
+                    remove = Some(i);
+                }
+            });
+            if let Err(e) = r.validate() {
+                error_line(ui, &e.to_string());
+            }
+        });
+    }
+    if let Some(i) = remove {
+        c.heat_rules.remove(i);
+    }
+    if ui
+        .button("Add a heat rule")
+        .on_hover_text("A rule such as “3 h above 40 °C on 2 days”; saved with the scenario.")
+        .clicked()
+    {
+        c.heat_rules.push(HeatRule::default());
+    }
+}
+
 fn design_day_inputs(ui: &mut Ui, d: &mut DesignDay, units: UnitSystem) {
     let t = |label, tooltip| Field {
         label,
@@ -1796,7 +1874,9 @@ fn cooling_table(ui: &mut Ui, table: &CoolingTable, units: UnitSystem) {
                 } else {
                     ui.label(t);
                 }
-                ui.label(margin.map_or("—".to_owned(), |m| show(Quantity::TempDiff, m, units)));
+                ui.label(margin.map_or("—".to_owned(), |m| {
+                    show(Quantity::TempDiff, no_negative_zero(m, 1), units)
+                }));
                 ui.label(hours.map_or("— (one moment)".to_owned(), |h| format!("{h:.0} h")));
                 ui.label(format!(
                     "{water:.2} L/m²{}",

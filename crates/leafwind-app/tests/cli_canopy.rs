@@ -205,6 +205,51 @@ fn weather_file_bad_rows_are_listed_and_good_rows_run() {
     assert!(rejected[0].as_str().unwrap().contains('3'), "{rejected:?}");
 }
 
+/// A heat rule over a two-day weather file (invented rows): two hours above 33 °C on both days,
+/// days in a row, is met on the second day; a missing hour breaks an "in a row" run.
+#[test]
+fn heat_rules_run_over_the_weather_file() {
+    let dir = temp_dir("weather-rules");
+    std::fs::write(
+        dir.join("two_days.csv"),
+        "time,air_temp_c,rh_pct,wind_m_s,shortwave_w_m2\n\
+         2026-07-21 12:00,34,30,1.0,850\n\
+         2026-07-21 13:00,35,30,1.0,870\n\
+         2026-07-21 14:00,31,30,1.2,820\n\
+         2026-07-22 12:00,34,30,1.0,850\n\
+         2026-07-22 14:00,34,30,1.0,820\n",
+    )
+    .unwrap();
+    let mut doc = hot_field();
+    if let Some(c) = doc.canopy.as_mut() {
+        c.design_day = None;
+        c.weather_csv = Some("two_days.csv".into());
+        let two_days = HeatRule {
+            temperature: LimitKind::Air,
+            above_c: 33.0,
+            hours: 2,
+            hours_in_a_row: false,
+            days: 2,
+            days_in_a_row: true,
+        };
+        c.heat_rules = vec![
+            two_days,
+            HeatRule {
+                hours_in_a_row: true,
+                ..two_days
+            },
+        ];
+    }
+    let v = json(write(&doc, &dir));
+    let rules = v["weather"]["heat_rules"].as_array().unwrap();
+    assert_eq!(rules[0]["verdict"], "met");
+    assert_eq!(rules[0]["first_met"], "2026-07-22");
+    assert_eq!(rules[0]["longest_day_run"], 2);
+    // 12:00 and 14:00 on the 22nd are not an unbroken run: only the 21st meets it.
+    assert_eq!(rules[1]["verdict"], "not met");
+    assert_eq!(rules[1]["days_meeting"], 1);
+}
+
 #[test]
 fn scenario_without_canopy_is_a_named_error() {
     let dir = temp_dir("none");

@@ -13,7 +13,7 @@ use leafwind_physics::greenhouse::{GreenhouseCase, InsideAir, Outside, solve_gre
 use leafwind_physics::sun::HorizontalShortwave;
 use leafwind_physics::ventilation::{
     DAYLIGHT_EFFICACY_LM_W, FACTOR_BASE_RATE_M3_M2_S, FACTOR_REFERENCE_LIGHT_KLX,
-    VentilationAnswer, VentilationTarget, factor_rate, least_ventilation,
+    VentilationAnswer, VentilationTarget, design_check, factor_rate, least_ventilation,
 };
 use leafwind_physics::{Humidity, PhysicsError};
 
@@ -198,5 +198,47 @@ fn least_ventilation_unreachable_already_met_and_bad_input() {
             ),
             "{bad}: {e:?}"
         );
+    }
+}
+
+proptest::proptest! {
+    #![proptest_config(proptest::prelude::ProptestConfig {
+        cases: std::env::var("PROPTEST_CASES").ok().and_then(|v| v.parse().ok()).unwrap_or(24),
+        ..proptest::prelude::ProptestConfig::default()
+    })]
+    /// Over random valid houses (a 3-layer canopy to keep it quick) the ventilation answers are
+    /// values, never panics: finite rates inside the valid range, met at the answer; the factor
+    /// method finite and not negative (invariants, no source).
+    #[test]
+    fn ventilation_answers_are_finite_values(
+        outside_c in 5.0f64..45.0,
+        rh in 10.0f64..90.0,
+        sun_w_m2 in 0.0f64..1000.0,
+        tau in 0.3f64..0.9,
+        lai in 0.0f64..6.0,
+        gs in 0.01f64..0.6,
+        rise_k in 0.5f64..10.0,
+        limit_c in 25.0f64..50.0,
+        margin_k in 0.0f64..3.0,
+    ) {
+        let mut c = reference_house(lai, 101.325, 1.0);
+        c.outside.air_temp_c = outside_c;
+        c.outside.humidity = Humidity::RelativePct(rh);
+        c.outside.shortwave = HorizontalShortwave { beam_w_m2: 0.8 * sun_w_m2, diffuse_w_m2: 0.2 * sun_w_m2 };
+        c.cover.transmittance = tau;
+        c.structure.layers = 3;
+        c.leaf.stomatal_conductance_mol_m2_s = gs;
+        if let Ok(check) = design_check(&c, limit_c, margin_k, rise_k) {
+            proptest::prop_assert!(check.factor.rate_m3_m2_s.is_finite() && check.factor.rate_m3_m2_s >= 0.0);
+            for a in [check.for_leaf, check.for_design_rise] {
+                if let Some(v) = a.rate_m3_m2_s() {
+                    proptest::prop_assert!((1e-4..=0.5).contains(&v), "{v}");
+                }
+                proptest::prop_assert!(!a.sentence().contains("NaN"), "{}", a.sentence());
+            }
+            if let VentilationAnswer::Rate { at, .. } = check.for_design_rise {
+                proptest::prop_assert!(at.inside_air_temp_c - outside_c <= rise_k + 1e-9);
+            }
+        }
     }
 }

@@ -253,6 +253,9 @@ pub fn rule_sentence(o: &RuleOutcome, over: &str, units: UnitSystem) -> String {
             "Rule “{rule}”: {over} meets the daily condition ({most} h above), but is shorter than the {} days the rule needs — it would be met if such days went on.{unsolved}",
             o.rule.days
         ),
+        Verdict::NotMet if o.days_meeting == 0 => format!(
+            "Rule “{rule}”: not met over {over} — no day meets the daily condition; the most in one day is {most} h.{unsolved}"
+        ),
         Verdict::NotMet => format!(
             "Rule “{rule}”: not met over {over} — {} days meet the daily condition, at most {} in a row; the most in one day is {most} h.{unsolved}",
             o.days_meeting, o.longest_day_run,

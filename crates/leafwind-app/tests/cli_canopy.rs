@@ -26,6 +26,7 @@ fn json(path: PathBuf) -> serde_json::Value {
         &CanopyArgs {
             scenario: path,
             json: true,
+            imperial: false,
         },
         &mut out,
     )
@@ -250,6 +251,38 @@ fn heat_rules_run_over_the_weather_file() {
     assert_eq!(rules[1]["days_meeting"], 1);
 }
 
+/// `--imperial` text: °F, ft/min and the same sentences as the window; the JSON stays SI.
+#[test]
+fn imperial_text_uses_fahrenheit_and_feet_per_minute() {
+    let dir = temp_dir("imperial");
+    let path = write(&hot_field(), &dir);
+    let text = |imperial: bool| {
+        let mut out = Vec::new();
+        run(
+            &CanopyArgs {
+                scenario: path.clone(),
+                json: false,
+                imperial,
+            },
+            &mut out,
+        )
+        .unwrap();
+        String::from_utf8(out).unwrap()
+    };
+    let im = text(true);
+    assert!(im.contains("°F") && im.contains("ft/min"), "{im}");
+    assert!(!im.contains("°C"), "{im}");
+    assert!(im.contains("Least canopy-top air speed"), "{im}");
+    assert!(im.contains("Rule “2 h in a row above 68.0 °F"), "{im}");
+    assert!(!im.contains("NaN") && !im.contains("-0.0"), "{im}");
+    let si = text(false);
+    assert!(
+        si.contains("°C") && si.contains("m/s") && !si.contains("°F"),
+        "{si}"
+    );
+    assert!(si.contains("licensed practice"), "{si}");
+}
+
 #[test]
 fn scenario_without_canopy_is_a_named_error() {
     let dir = temp_dir("none");
@@ -259,6 +292,7 @@ fn scenario_without_canopy_is_a_named_error() {
         &CanopyArgs {
             scenario: path.clone(),
             json: false,
+            imperial: false,
         },
         &mut out,
     )

@@ -14,7 +14,10 @@ use serde::Serialize;
 use crate::canopy_scenario::{CanopyRun, CoolingTable, FAN_POWER_DEFAULT_W_M2};
 use crate::document::ScenarioDocument;
 use crate::output::finite;
-use crate::words::no_negative_zero;
+use crate::units::{Quantity, UnitSystem};
+use crate::words::{
+    num, rule_sentence, shade_sentence, show, speed_sentence, ventilation_sentence,
+};
 
 /// Arguments of `leafwind canopy`.
 #[derive(Debug, Clone, Args)]
@@ -25,6 +28,9 @@ pub struct CanopyArgs {
     /// Print JSON instead of text.
     #[arg(long)]
     pub json: bool,
+    /// Text in °F, ft/min, ft and cfm (the JSON stays SI, its keys name their units).
+    #[arg(long)]
+    pub imperial: bool,
 }
 
 /// One layer of the profile, from the top.
@@ -348,6 +354,17 @@ impl CanopyRecord {
 /// # Errors
 /// An unreadable scenario, one without a canopy section, or invalid inputs.
 pub fn record(args: &CanopyArgs) -> Result<CanopyRecord> {
+    let (doc, run) = document_and_run(args)?;
+    Ok(record_of(&doc, &run))
+}
+
+fn record_of(doc: &ScenarioDocument, run: &CanopyRun) -> CanopyRecord {
+    let site = doc.canopy.as_ref().map(|c| c.site).unwrap_or_default();
+    CanopyRecord::new(&doc.title, run, &site)
+}
+
+/// The scenario and its canopy run.
+fn document_and_run(args: &CanopyArgs) -> Result<(ScenarioDocument, CanopyRun)> {
     let doc = ScenarioDocument::load(&args.scenario)
         .map_err(|e| anyhow!("{e} in {}", args.scenario.display()))?;
     let section = doc.canopy.as_ref().ok_or_else(|| {
@@ -369,7 +386,7 @@ pub fn record(args: &CanopyArgs) -> Result<CanopyRecord> {
         args.scenario.parent(),
         fan_power,
     )?;
-    Ok(CanopyRecord::new(&doc.title, &run, &section.site))
+    Ok((doc, run))
 }
 
 /// Runs `leafwind canopy`, writing to `out`.
@@ -377,109 +394,138 @@ pub fn record(args: &CanopyArgs) -> Result<CanopyRecord> {
 /// # Errors
 /// As [`record`], or a failed write.
 pub fn run(args: &CanopyArgs, out: &mut impl Write) -> Result<ExitCode> {
-    let r = record(args)?;
+    let (doc, run) = document_and_run(args)?;
+    let r = record_of(&doc, &run);
     if args.json {
         serde_json::to_writer_pretty(&mut *out, &r)?;
         writeln!(out)?;
         return Ok(ExitCode::SUCCESS);
     }
+    let units = if args.imperial {
+        UnitSystem::Imperial
+    } else {
+        UnitSystem::Si
+    };
+    write_text(out, &r, &doc, &run, units)?;
+    Ok(ExitCode::SUCCESS)
+}
+
+/// The text answer, in `units`: the same sentences as the window's canopy tab.
+fn write_text(
+    out: &mut impl Write,
+    r: &CanopyRecord,
+    doc: &ScenarioDocument,
+    run: &CanopyRun,
+    units: UnitSystem,
+) -> Result<()> {
+    let (tq, dq) = (Quantity::Temperature, Quantity::TempDiff);
+    let t = |c: f64| show(tq, c, units);
     writeln!(out, "{}", r.title)?;
     writeln!(
         out,
         "Sun {:.1}° high, azimuth {:.0}°",
         r.sun_elevation_deg, r.sun_azimuth_deg
     )?;
-    if let Some(t) = r.inside_air_temp_c {
-        writeln!(out, "Inside air {t:.1} °C")?;
+    if let Some(c) = r.inside_air_temp_c {
+        writeln!(out, "Inside air {}", t(c))?;
     }
     writeln!(
         out,
-        "Hottest leaf {:.1} °C ({} leaf in layer {} from the top); limit {:.1} °C ({}), margin {:+.1} K",
-        r.hottest_leaf_temp_c,
+        "Hottest leaf {} ({} leaf in layer {} from the top); limit {} ({}), margin {}",
+        t(r.hottest_leaf_temp_c),
         if r.hottest_leaf_sunlit {
             "sunlit"
         } else {
             "shaded"
         },
         r.hottest_layer,
-        r.limit_c,
+        t(r.limit_c),
         r.limit_kind,
-        no_negative_zero(r.margin_k, 1)
+        show(dq, r.margin_k, units)
     )?;
-    writeln!(out, "Air speed: {}", r.required_wind_reason)?;
-    writeln!(out, "Shade: {}", r.required_shade_fraction_reason)?;
-    writeln!(out, "Ventilation: {}", r.required_ventilation_reason)?;
-    if let (Some(dt), Some(factor)) = (r.design_rise_k, r.standard_factor_rate_m3_m2_s) {
-        let balance = r
-            .ventilation_for_design_rise_m3_m2_s
-            .map_or_else(|| "none can".to_owned(), |v| format!("{v:.3} m³/s per m²"));
-        writeln!(
-            out,
-            "Ventilation for a {dt:.1} K rise: {balance} from the balance; the standard's factor method (EP406, from memory) asks for {factor:.3} m³/s per m²."
-        )?;
-    }
+    writeln!(out, "{}", speed_sentence(&run.speed, units))?;
+    writeln!(out, "{}", shade_sentence(run.shade.as_ref(), units))?;
+    let house = doc
+        .fans
+        .as_ref()
+        .map(|f| (f.layout.house_length_m, f.layout.house_width_m));
     writeln!(
         out,
-        "{:>5} {:>8} {:>9} {:>9} {:>10} {:>10}",
-        "layer", "height m", "LAI above", "sunlit %", "air m/s", "leaf °C"
+        "{}",
+        ventilation_sentence(run.ventilation.as_ref(), house, units)
+    )?;
+    let (hq, sq) = (Quantity::Altitude, Quantity::Speed);
+    writeln!(
+        out,
+        "{:>5} {:>10} {:>9} {:>9} {:>12} {:>12}",
+        "layer",
+        format!("height {}", hq.unit(units)),
+        "LAI above",
+        "sunlit %",
+        format!("air {}", sq.unit(units)),
+        format!("leaf {}", tq.unit(units))
     )?;
     for l in &r.layers {
-        let leaf = l
-            .sunlit_leaf_temp_c
-            .map_or(format!("{:.1}", l.shaded_leaf_temp_c), |s| {
-                format!("{s:.1}/{:.1}", l.shaded_leaf_temp_c)
-            });
+        let shaded = tq.number(l.shaded_leaf_temp_c, units);
+        let leaf = l.sunlit_leaf_temp_c.map_or(shaded.clone(), |s| {
+            format!("{}/{shaded}", tq.number(s, units))
+        });
         writeln!(
             out,
-            "{:>5} {:>8.2} {:>9.2} {:>9.0} {:>10.2} {:>10}",
+            "{:>5} {:>10} {:>9.2} {:>9.0} {:>12} {:>12}",
             l.layer,
-            l.height_m,
+            Quantity::Altitude
+                .format_with(l.height_m, units, 2)
+                .replace(&format!(" {}", hq.unit(units)), ""),
             l.lai_above,
             100.0 * l.sunlit_fraction,
-            l.air_speed_m_s,
+            sq.number(l.air_speed_m_s, units),
             leaf
         )?;
     }
-    for (name, s) in [("Design day", &r.design_day), ("Weather file", &r.weather)] {
-        if let Some(s) = s {
-            writeln!(
-                out,
-                "{name}: {:.0} h over the limit, {:.1} K·h over it, smallest margin {}",
-                s.hours_over_limit,
-                s.degree_hours_over_limit,
-                s.min_margin_k.map_or("—".to_owned(), |m| format!(
-                    "{:+.1} K",
-                    no_negative_zero(m, 1)
-                ))
-            )?;
-            for row in &s.rejected_rows {
-                writeln!(out, "  rejected {row}")?;
-            }
-            for rule in &s.heat_rules {
-                let when = rule
-                    .first_met
-                    .as_ref()
-                    .map_or(String::new(), |d| format!(", completed on {d}"));
-                writeln!(
-                    out,
-                    "  rule \"{}\": {} ({} days meet the daily condition, {} in a row at most; most in a day {} h{when})",
-                    rule.rule,
-                    rule.verdict,
-                    rule.days_meeting,
-                    rule.longest_day_run,
-                    rule.most_hours_in_a_day
-                )?;
-            }
-        }
-    }
-    if let (Some(below), Some(margin_h), Some(m)) = (
-        r.dew_hours_below_dew_point,
-        r.dew_hours_below_margin,
-        r.dew_margin_k,
-    ) {
+    let series = [
+        (
+            "Design day",
+            "the design day",
+            run.design_day.as_ref(),
+            &run.design_day_rules,
+            &[][..],
+        ),
+        (
+            "Weather file",
+            "the weather file",
+            run.weather.as_ref().map(|(s, _)| s),
+            &run.weather_rules,
+            run.weather
+                .as_ref()
+                .map_or(&[][..], |(_, bad)| bad.as_slice()),
+        ),
+    ];
+    for (name, over, s, rules, rejected) in series {
+        let Some(s) = s else { continue };
         writeln!(
             out,
-            "Night dew over the design day: {below:.0} h with leaves below the dew point, {margin_h:.0} h within {m:.1} K of it"
+            "{name}: {} h over the limit, {} {}·h over it, smallest margin {}",
+            num(s.hours_over_limit, 0),
+            dq.number(s.degree_hours_over_k_h, units),
+            dq.unit(units),
+            s.min_margin_k
+                .map_or("—".to_owned(), |m| show(dq, m, units))
+        )?;
+        for row in rejected {
+            writeln!(out, "  rejected {row}")?;
+        }
+        for o in rules {
+            writeln!(out, "  {}", rule_sentence(o, over, units))?;
+        }
+    }
+    if let Some(d) = &run.dew {
+        writeln!(
+            out,
+            "Night dew over the design day: {} h with leaves below the dew point, {} h within {} of it",
+            num(d.hours_below_dew_point, 0),
+            num(d.hours_below_margin, 0),
+            show(dq, d.margin_k, units)
         )?;
     }
     if !r.cooling_options.is_empty() {
@@ -490,24 +536,33 @@ pub fn run(args: &CanopyArgs, out: &mut impl Write) -> Result<ExitCode> {
         writeln!(
             out,
             "{:<22} {:>12} {:>10} {:>10} {:>12}",
-            "option", "hottest °C", "margin K", "h over", "water L/m²"
+            "option",
+            format!("hottest {}", tq.unit(units)),
+            format!("margin {}", dq.unit(units)),
+            "h over",
+            "water L/m²"
         )?;
         for o in &r.cooling_options {
-            let opt = |v: Option<f64>, d: usize| v.map_or("—".to_owned(), |x| format!("{x:.d$}"));
+            let opt =
+                |v: Option<f64>, q: Quantity| v.map_or("—".to_owned(), |x| q.number(x, units));
             writeln!(
                 out,
                 "{:<22} {:>12} {:>10} {:>10} {:>12}",
                 o.option,
-                opt(o.hottest_leaf_temp_c, 1),
-                opt(o.margin_k, 1),
-                opt(o.hours_over_limit, 0),
+                opt(o.hottest_leaf_temp_c, tq),
+                opt(o.margin_k, dq),
+                o.hours_over_limit.map_or("—".to_owned(), |h| num(h, 0)),
                 format!(
-                    "{:.2}{}",
-                    o.water_l_m2,
+                    "{}{}",
+                    num(o.water_l_m2, 2),
                     if o.water_per_hour { "/h" } else { "" }
                 )
             )?;
         }
     }
-    Ok(ExitCode::SUCCESS)
+    writeln!(
+        out,
+        "Estimates from physics and typical parameters: check them with an infrared thermometer and an anemometer. Fans, vents and their electrical installation follow local codes and licensed practice."
+    )?;
+    Ok(())
 }

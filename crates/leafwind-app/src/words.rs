@@ -1,9 +1,13 @@
-//! The canopy answers in words, in the user's units: the least canopy-top air speed, the least
-//! shade and the least ventilation rate, one sentence each, and the number formatting they share
-//! (never "NaN": "—" for a missing value). Used by the window and the grower report alike.
+//! The answers in words, in the user's units: the least canopy-top air speed, the least shade, the
+//! least ventilation rate and the heat rules; the fans' layout, where more air stops helping and
+//! the night dew check; airflow units; and the number formatting they share (never "NaN": "—" for
+//! a missing value). Used by the window, the commands' text output and the grower report alike.
 
 use leafwind_physics::canopy::{SpeedAnswer, SpeedObstacle};
-use leafwind_physics::fans::{m3_s_to_cfm, m3_s_to_m3_h};
+use leafwind_physics::condensation::{DewAnswer, DewMargin, DewObstacle};
+use leafwind_physics::fans::{
+    DiminishingReturns, FanSizing, SpeedRange, cfm_to_m3_s, m3_h_to_m3_s, m3_s_to_cfm, m3_s_to_m3_h,
+};
 use leafwind_physics::greenhouse::ShadeAnswer;
 use leafwind_physics::heat_rules::{RuleOutcome, Verdict};
 use leafwind_physics::ventilation::{VentilationAnswer, VentilationTarget};
@@ -260,5 +264,261 @@ pub fn rule_sentence(o: &RuleOutcome, over: &str, units: UnitSystem) -> String {
             "Rule “{rule}”: not met over {over} — {} days meet the daily condition, at most {} in a row; the most in one day is {most} h.{unsolved}",
             o.days_meeting, o.longest_day_run,
         ),
+    }
+}
+
+// ---------------------------------------------------------------------------------------------
+// Airflow units
+
+/// The unit of a fan's airflow rating on screen.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum FlowUnit {
+    /// Cubic metres per hour (the usual catalogue unit in SI countries).
+    #[default]
+    M3PerHour,
+    /// Cubic metres per second.
+    M3PerSecond,
+    /// Cubic feet per minute (imperial).
+    Cfm,
+}
+
+impl FlowUnit {
+    /// The unit shown for `units` and the SI choice.
+    #[must_use]
+    pub fn for_units(units: UnitSystem, si_choice: FlowUnit) -> Self {
+        match units {
+            UnitSystem::Imperial => Self::Cfm,
+            UnitSystem::Si if si_choice == Self::Cfm => Self::M3PerHour,
+            UnitSystem::Si => si_choice,
+        }
+    }
+
+    /// Label.
+    #[must_use]
+    pub fn unit(self) -> &'static str {
+        match self {
+            Self::M3PerHour => "m³/h",
+            Self::M3PerSecond => "m³/s",
+            Self::Cfm => "cfm",
+        }
+    }
+
+    /// m³/s → shown.
+    #[must_use]
+    pub fn to_display(self, m3_s: f64) -> f64 {
+        match self {
+            Self::M3PerHour => m3_s_to_m3_h(m3_s),
+            Self::M3PerSecond => m3_s,
+            Self::Cfm => m3_s_to_cfm(m3_s),
+        }
+    }
+
+    /// Shown → m³/s.
+    #[must_use]
+    pub fn from_display(self, shown: f64) -> f64 {
+        match self {
+            Self::M3PerHour => m3_h_to_m3_s(shown),
+            Self::M3PerSecond => shown,
+            Self::Cfm => cfm_to_m3_s(shown),
+        }
+    }
+
+    /// Decimals shown.
+    #[must_use]
+    pub fn decimals(self) -> usize {
+        match self {
+            Self::M3PerSecond => 2,
+            _ => 0,
+        }
+    }
+
+    /// "4320 m³/h" ("—" when not finite).
+    #[must_use]
+    pub fn format(self, m3_s: f64) -> String {
+        let v = self.to_display(m3_s);
+        if v.is_finite() {
+            format!("{v:.*} {}", self.decimals(), self.unit())
+        } else {
+            "—".to_owned()
+        }
+    }
+}
+
+// ---------------------------------------------------------------------------------------------
+// Sentences in the units on screen
+
+/// A low / typical / high air speed in words.
+#[must_use]
+pub fn range_text(r: &SpeedRange, units: UnitSystem) -> String {
+    let sp = Quantity::Speed;
+    format!(
+        "{} (range {}–{})",
+        show_speed(r.typical_m_s, units),
+        sp.number(r.low_m_s, units),
+        show(sp, r.high_m_s, units)
+    )
+}
+
+/// The fans for the target, in one sentence.
+#[must_use]
+pub fn sizing_sentence(target_m_s: f64, s: &FanSizing, units: UnitSystem) -> String {
+    let flow = FlowUnit::for_units(units, FlowUnit::M3PerHour);
+    match s {
+        FanSizing::Found(v) => match v.first() {
+            Some((l, e)) => {
+                let spacing = if l.fans_per_row > 1 {
+                    format!(
+                        ", {} apart along each row",
+                        Quantity::Altitude.format_with(l.spacing_m, units, 1)
+                    )
+                } else {
+                    String::new()
+                };
+                format!(
+                    "For a target of {} at the canopy top: {} fans of the {} kind ({}, {}) in {} {} of {}{spacing} give at least {} outside the near-fan zones — an estimate to verify with an anemometer.",
+                    show_speed(target_m_s, units),
+                    l.fan_count(),
+                    l.fan.label,
+                    flow.format(l.fan.airflow_m3_s),
+                    Quantity::LeafSize.format(l.fan.diameter_m, units),
+                    l.rows,
+                    if l.rows == 1 { "row" } else { "rows" },
+                    l.fans_per_row,
+                    range_text(&e.min_canopy_top, units)
+                )
+            }
+            None => "For the target: no layout was found.".to_owned(),
+        },
+        FanSizing::NotReachable {
+            best_min_m_s,
+            target_m_s,
+        } => format!(
+            "For a target of {}: not reachable with the generic fan models — the best layout tried gives {} at the slowest point of the canopy top. Use larger fans, mount them closer to the crop or tilt them down.",
+            show_speed(*target_m_s, units),
+            show_speed(*best_min_m_s, units)
+        ),
+    }
+}
+
+/// Where more air stops helping, in words.
+#[must_use]
+pub fn returns_sentence(r: &DiminishingReturns, units: UnitSystem) -> String {
+    let dq = Quantity::TempDiff;
+    let step = show_speed(0.1, units);
+    let mut s = match r.knee_m_s {
+        Some(u) => format!(
+            "Where more air stops helping: beyond {} each further {step} cools the leaf by less than {}.",
+            show_speed(u, units),
+            dq.format_with(r.worth_it_k, units, 2)
+        ),
+        None => format!(
+            "Where more air stops helping: nowhere up to the end of the sweep — each {step} still cools the leaf by at least {}.",
+            dq.format_with(r.worth_it_k, units, 2)
+        ),
+    };
+    if let Some(u) = r.warming_from_m_s {
+        s.push_str(&format!(
+            " From {} more air warms the leaf (it is cooler than the air).",
+            show_speed(u, units)
+        ));
+    }
+    if let Some(u) = r.more_transpiration_from_m_s {
+        s.push_str(&format!(
+            " From {} more air raises transpiration (more water use).",
+            show_speed(u, units)
+        ));
+    }
+    s
+}
+
+/// The night dew answer, in words.
+#[must_use]
+pub fn night_sentence(m: &DewMargin, a: &DewAnswer, at_m_s: f64, units: UnitSystem) -> String {
+    let tq = Quantity::Temperature;
+    let dq = Quantity::TempDiff;
+    let t = |c: f64| show(tq, c, units);
+    let margin = format!(
+        "At night, at the slowest typical canopy air speed of {}, the leaf runs at {} with the dew point at {}: leaf − dew point = {}{}.",
+        show_speed(at_m_s, units),
+        t(m.leaf_temp_c),
+        t(m.dew_point_c),
+        show(dq, m.leaf_dew_diff_k, units),
+        if m.leaf_dew_diff_k < 0.0 {
+            " — water condenses on the leaves"
+        } else {
+            ""
+        }
+    );
+    let answer = match *a {
+        DewAnswer::NotNeeded {
+            still_air_leaf_temp_c,
+            target_c,
+        } => format!(
+            "Least air speed against dew: none needed — even in still air the leaf stays at {}, at or above the dew point plus margin ({}).",
+            t(still_air_leaf_temp_c),
+            t(target_c)
+        ),
+        DewAnswer::Speed {
+            speed_m_s,
+            leaf_temp_c,
+            target_c,
+        } => format!(
+            "Least air speed against dew: {} over the leaf keeps it at {} (dew point plus margin {}).",
+            show_speed(speed_m_s, units),
+            t(leaf_temp_c.max(target_c)),
+            t(target_c)
+        ),
+        DewAnswer::Unreachable(DewObstacle::AirTooHumid {
+            air_temp_c,
+            dew_point_c,
+            target_c,
+        }) => format!(
+            "Least air speed against dew: no air speed can do it — the air at {} has its dew point at {}, so even a leaf at air temperature is below the target of {}. Dry the air (heat and ventilate) instead.",
+            t(air_temp_c),
+            t(dew_point_c),
+            t(target_c)
+        ),
+        DewAnswer::Unreachable(DewObstacle::BeyondSearch {
+            max_speed_m_s,
+            leaf_temp_at_max_c,
+            target_c,
+        }) => format!(
+            "Least air speed against dew: not reachable with air alone — even at {} the leaf runs at {}, below the target of {}; the radiative loss to the sky or cover is too strong. A thermal screen or a little heat reduces it.",
+            show_speed(max_speed_m_s, units),
+            t(leaf_temp_at_max_c),
+            t(target_c)
+        ),
+    };
+    format!("{margin} {answer}")
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn airflow_units_round_trip() {
+        // 1 cfm = 0.000 471 947 m³/s (exact from the international foot); 1 m³/s = 3600 m³/h.
+        for u in [FlowUnit::M3PerHour, FlowUnit::M3PerSecond, FlowUnit::Cfm] {
+            let x = 1.2;
+            assert!((u.from_display(u.to_display(x)) - x).abs() < 1e-12);
+        }
+        assert!((FlowUnit::M3PerHour.to_display(1.0) - 3600.0).abs() < 1e-9);
+        assert!((FlowUnit::Cfm.to_display(cfm_to_m3_s(1000.0)) - 1000.0).abs() < 1e-9);
+        assert_eq!(FlowUnit::Cfm.format(f64::NAN), "—");
+    }
+
+    #[test]
+    fn rule_and_fan_sentences_never_print_nan() {
+        let r = DiminishingReturns {
+            steps: Vec::new(),
+            knee_m_s: None,
+            worth_it_k: f64::NAN,
+            warming_from_m_s: None,
+            more_transpiration_from_m_s: None,
+        };
+        for u in [UnitSystem::Si, UnitSystem::Imperial] {
+            assert!(!returns_sentence(&r, u).contains("NaN"));
+        }
     }
 }

@@ -22,6 +22,7 @@ fn json(path: PathBuf) -> serde_json::Value {
         &FansArgs {
             scenario: path,
             json: true,
+            imperial: false,
         },
         &mut out,
     )
@@ -80,9 +81,44 @@ fn scenario_without_fans_is_a_named_error() {
         &FansArgs {
             scenario: path,
             json: false,
+            imperial: false,
         },
         &mut out,
     )
     .unwrap_err();
     assert!(format!("{err:#}").contains("no fans section"));
+}
+
+/// `--imperial` text: ft/min, cfm per ft² and ft, with the window's sentences; SI text in m/s.
+#[test]
+fn imperial_text_uses_feet_per_minute_and_cfm() {
+    let (_, text) = leafwind_app::document::EXAMPLES[0];
+    let doc = ScenarioDocument::from_ron(text).unwrap();
+    assert!(doc.fans.is_some());
+    let dir = temp_dir("imperial");
+    let path = write(&doc, &dir);
+    let text = |imperial: bool| {
+        let mut out = Vec::new();
+        run(
+            &FansArgs {
+                scenario: path.clone(),
+                json: false,
+                imperial,
+            },
+            &mut out,
+        )
+        .unwrap();
+        String::from_utf8(out).unwrap()
+    };
+    let im = text(true);
+    assert!(
+        im.contains("ft/min") && im.contains("cfm/ft²") && im.contains(" ft"),
+        "{im}"
+    );
+    assert!(im.contains("°F"), "{im}");
+    assert!(im.contains("Where more air stops helping"), "{im}");
+    assert!(!im.contains("NaN") && !im.contains("-0.0"), "{im}");
+    let si = text(false);
+    assert!(si.contains("m/s") && !si.contains("ft/min"), "{si}");
+    assert!(si.contains("licensed electrician"), "{si}");
 }

@@ -12,6 +12,8 @@ use serde::Serialize;
 
 use crate::document::ScenarioDocument;
 use crate::fans_scenario::FansRun;
+use crate::units::{Quantity, UnitSystem};
+use crate::words::{night_sentence, num, range_text, returns_sentence, show, sizing_sentence};
 
 /// Arguments of `leafwind fans`.
 #[derive(Debug, Clone, Args)]
@@ -22,6 +24,9 @@ pub struct FansArgs {
     /// Print JSON instead of text.
     #[arg(long)]
     pub json: bool,
+    /// Text in ft/min, ft, cfm and °F (the JSON stays SI, its keys name their units).
+    #[arg(long)]
+    pub imperial: bool,
 }
 
 /// A low / typical / high air speed \[m s⁻¹\].
@@ -161,6 +166,12 @@ impl FansRecord {
 /// # Errors
 /// An unreadable scenario, one without a fans section, or invalid inputs.
 pub fn record(args: &FansArgs) -> Result<FansRecord> {
+    let (doc, run) = document_and_run(args)?;
+    Ok(FansRecord::new(&doc.title, &run))
+}
+
+/// The scenario and its fans run.
+fn document_and_run(args: &FansArgs) -> Result<(ScenarioDocument, FansRun)> {
     let doc = ScenarioDocument::load(&args.scenario)
         .map_err(|e| anyhow!("{e} in {}", args.scenario.display()))?;
     let section = doc.fans.as_ref().ok_or_else(|| {
@@ -171,7 +182,7 @@ pub fn record(args: &FansArgs) -> Result<FansRecord> {
     })?;
     let structure = doc.canopy.as_ref().map(|c| c.structure).unwrap_or_default();
     let run = section.run(&doc.case, &structure, args.scenario.parent())?;
-    Ok(FansRecord::new(&doc.title, &run))
+    Ok((doc, run))
 }
 
 /// Runs `leafwind fans`, writing to `out`.
@@ -179,58 +190,78 @@ pub fn record(args: &FansArgs) -> Result<FansRecord> {
 /// # Errors
 /// As [`record`], or a failed write.
 pub fn run(args: &FansArgs, out: &mut impl Write) -> Result<ExitCode> {
-    let r = record(args)?;
+    let (doc, run) = document_and_run(args)?;
+    let r = FansRecord::new(&doc.title, &run);
     if args.json {
         serde_json::to_writer_pretty(&mut *out, &r)?;
         writeln!(out)?;
         return Ok(ExitCode::SUCCESS);
     }
-    let range = |x: &RangeRecord| {
-        format!(
-            "{:.2} m/s (range {:.2}–{:.2})",
-            x.typical_m_s, x.low_m_s, x.high_m_s
-        )
+    let units = if args.imperial {
+        UnitSystem::Imperial
+    } else {
+        UnitSystem::Si
     };
+    write_text(out, &r, &run, units)?;
+    Ok(ExitCode::SUCCESS)
+}
+
+/// The text answer in `units`, with the window's sentences.
+fn write_text(
+    out: &mut impl Write,
+    r: &FansRecord,
+    run: &FansRun,
+    units: UnitSystem,
+) -> Result<()> {
+    let e = &run.estimate;
+    let vq = Quantity::VentilationRate;
+    let lq = Quantity::Altitude;
     writeln!(out, "{}", r.title)?;
     writeln!(
         out,
         "Canopy-top air speed, slowest {}, mean {}",
-        range(&r.canopy_speed_min),
-        range(&r.canopy_speed_mean)
+        range_text(&e.min_canopy_top, units),
+        range_text(&e.mean_canopy_top, units)
     )?;
     writeln!(out, "  {}", r.estimate_note)?;
     writeln!(
         out,
-        "Rules of thumb (common practice): airflow {:.3} m³/s per m² installed vs {:.3} suggested ({}); throw {:.0} m by rule, {} by the jet model",
-        r.installed_airflow_m3_s_m2,
-        r.rule_of_thumb_airflow_m3_s_m2,
+        "Rules of thumb (common practice): circulation airflow {} installed vs {} suggested ({}); throw {} by rule, {} by the jet model",
+        show(vq, r.installed_airflow_m3_s_m2, units),
+        show(vq, r.rule_of_thumb_airflow_m3_s_m2, units),
         if r.meets_airflow_rule {
             "met"
         } else {
             "not met"
         },
-        r.rule_of_thumb_throw_m,
+        lq.format_with(r.rule_of_thumb_throw_m, units, 0),
         r.jet_throw_m
-            .map_or("—".to_owned(), |t| format!("{t:.0} m"))
+            .map_or("—".to_owned(), |t| lq.format_with(t, units, 0))
     )?;
-    if let Some(s) = &r.sizing_reason {
-        writeln!(out, "For the target: {s}")?;
+    if let Some((target, s)) = &run.sizing {
+        writeln!(out, "{}", sizing_sentence(*target, s, units))?;
     }
     for row in &r.rejected_readings {
         writeln!(out, "  rejected reading {row}")?;
     }
-    writeln!(out, "More air: {}", r.returns_reason)?;
+    writeln!(out, "{}", returns_sentence(&run.returns, units))?;
     writeln!(
         out,
-        "Fan power {:.0} W ({:.2} W/m²), {:.1} kWh a day",
-        r.fan_power_w, r.fan_power_w_m2, r.fan_energy_kwh_per_day
+        "Fan power {} W ({} W/m²), {} kWh a day",
+        num(r.fan_power_w, 0),
+        num(r.fan_power_w_m2, 2),
+        num(r.fan_energy_kwh_per_day, 1)
     )?;
-    if let Some(n) = &r.night_reason {
-        writeln!(out, "Night: {n}")?;
+    if let Some((m, a)) = &run.night {
+        writeln!(
+            out,
+            "{}",
+            night_sentence(m, a, e.min_canopy_top.typical_m_s, units)
+        )?;
     }
     writeln!(
         out,
         "Fan and electrical installations: follow local codes and use a licensed electrician."
     )?;
-    Ok(ExitCode::SUCCESS)
+    Ok(())
 }

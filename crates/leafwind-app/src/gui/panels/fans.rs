@@ -13,15 +13,12 @@ use egui_plot::{Arrows, HLine, Legend, Line, LineStyle, MarkerShape, Plot, Point
 use leafwind_physics::air::AIR_TEMP_RANGE_C;
 use leafwind_physics::canopy::CanopyStructure;
 use leafwind_physics::case::AIR_SPEED_RANGE_M_S;
-use leafwind_physics::condensation::{
-    DEW_MARGIN_DEFAULT_K, DEW_MARGIN_RANGE_K, DewAnswer, DewMargin, DewObstacle,
-};
+use leafwind_physics::condensation::{DEW_MARGIN_DEFAULT_K, DEW_MARGIN_RANGE_K};
 use leafwind_physics::error::ValidRange;
 use leafwind_physics::fans::{
-    DiminishingReturns, EFFICACY_RANGE_M3_S_W, FAN_AIRFLOW_RANGE_M3_S, FAN_DIAMETER_RANGE_M,
-    FANS_PER_ROW_RANGE, FanLayout, FanSizing, HOUSE_DIMENSION_RANGE_M, JET_HCG1994,
-    MOUNTING_HEIGHT_RANGE_M, ROW_COUNT_RANGE, SQUARE_FOOT_IN_M2, SpeedRange, TILT_RANGE_RAD,
-    cfm_to_m3_s, m3_h_to_m3_s, m3_s_to_cfm, m3_s_to_m3_h,
+    EFFICACY_RANGE_M3_S_W, FAN_AIRFLOW_RANGE_M3_S, FAN_DIAMETER_RANGE_M, FANS_PER_ROW_RANGE,
+    FanLayout, HOUSE_DIMENSION_RANGE_M, JET_HCG1994, MOUNTING_HEIGHT_RANGE_M, ROW_COUNT_RANGE,
+    SQUARE_FOOT_IN_M2, SpeedRange, TILT_RANGE_RAD, m3_s_to_cfm, m3_s_to_m3_h,
 };
 use leafwind_physics::radiation::{SURFACE_TEMP_RANGE_C, UpperView};
 use leafwind_physics::{Humidity, LeafCase};
@@ -36,7 +33,9 @@ use crate::gui::panels::canopy::{
 };
 use crate::gui::panels::sweep::{LIMIT_COLOUR, PALETTE, hover_text};
 use crate::units::{Quantity, UnitSystem};
-use crate::words::{num, show, show_speed};
+use crate::words::{
+    FlowUnit, night_sentence, num, range_text, returns_sentence, show, show_speed, sizing_sentence,
+};
 
 /// The one-line caution shown with every fan result.
 pub const FAN_CAUTION: &str = "Caution: fan and electrical installations follow local codes and are done by licensed electricians; guard fans within reach.";
@@ -81,81 +80,6 @@ pub fn compute_fans(input: &FansInput) -> Result<FansRun, String> {
         .map_err(|e| format!("{e:#}"))
 }
 
-// ---------------------------------------------------------------------------------------------
-// Airflow units
-
-/// The unit of a fan's airflow rating on screen.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
-pub enum FlowUnit {
-    /// Cubic metres per hour (the usual catalogue unit in SI countries).
-    #[default]
-    M3PerHour,
-    /// Cubic metres per second.
-    M3PerSecond,
-    /// Cubic feet per minute (imperial).
-    Cfm,
-}
-
-impl FlowUnit {
-    /// The unit shown for `units` and the SI choice.
-    #[must_use]
-    pub fn for_units(units: UnitSystem, si_choice: FlowUnit) -> Self {
-        match units {
-            UnitSystem::Imperial => Self::Cfm,
-            UnitSystem::Si if si_choice == Self::Cfm => Self::M3PerHour,
-            UnitSystem::Si => si_choice,
-        }
-    }
-
-    /// Label.
-    #[must_use]
-    pub fn unit(self) -> &'static str {
-        match self {
-            Self::M3PerHour => "m³/h",
-            Self::M3PerSecond => "m³/s",
-            Self::Cfm => "cfm",
-        }
-    }
-
-    /// m³/s → shown.
-    #[must_use]
-    pub fn to_display(self, m3_s: f64) -> f64 {
-        match self {
-            Self::M3PerHour => m3_s_to_m3_h(m3_s),
-            Self::M3PerSecond => m3_s,
-            Self::Cfm => m3_s_to_cfm(m3_s),
-        }
-    }
-
-    /// Shown → m³/s.
-    #[must_use]
-    pub fn from_display(self, shown: f64) -> f64 {
-        match self {
-            Self::M3PerHour => m3_h_to_m3_s(shown),
-            Self::M3PerSecond => shown,
-            Self::Cfm => cfm_to_m3_s(shown),
-        }
-    }
-
-    fn decimals(self) -> usize {
-        match self {
-            Self::M3PerSecond => 2,
-            _ => 0,
-        }
-    }
-
-    /// "4320 m³/h" ("—" when not finite).
-    #[must_use]
-    pub fn format(self, m3_s: f64) -> String {
-        let v = self.to_display(m3_s);
-        if v.is_finite() {
-            format!("{v:.*} {}", self.decimals(), self.unit())
-        } else {
-            "—".to_owned()
-        }
-    }
-}
-
 /// A field whose SI value is shown through a linear factor (airflow, degrees).
 fn scaled_field(
     ui: &mut Ui,
@@ -181,152 +105,6 @@ fn scaled_field(
     if shown != before && shown.is_finite() {
         *value_si = from_display(shown);
     }
-}
-
-// ---------------------------------------------------------------------------------------------
-// Sentences in the units on screen
-
-fn range_text(r: &SpeedRange, units: UnitSystem) -> String {
-    let sp = Quantity::Speed;
-    format!(
-        "{} (range {}–{})",
-        show_speed(r.typical_m_s, units),
-        sp.number(r.low_m_s, units),
-        show(sp, r.high_m_s, units)
-    )
-}
-
-/// The fans for the target, in one sentence.
-#[must_use]
-pub fn sizing_sentence(target_m_s: f64, s: &FanSizing, units: UnitSystem) -> String {
-    let flow = FlowUnit::for_units(units, FlowUnit::M3PerHour);
-    match s {
-        FanSizing::Found(v) => match v.first() {
-            Some((l, e)) => {
-                let spacing = if l.fans_per_row > 1 {
-                    format!(
-                        ", {} apart along each row",
-                        Quantity::Altitude.format_with(l.spacing_m, units, 1)
-                    )
-                } else {
-                    String::new()
-                };
-                format!(
-                    "For a target of {} at the canopy top: {} fans of the {} kind ({}, {}) in {} {} of {}{spacing} give at least {} outside the near-fan zones — an estimate to verify with an anemometer.",
-                    show_speed(target_m_s, units),
-                    l.fan_count(),
-                    l.fan.label,
-                    flow.format(l.fan.airflow_m3_s),
-                    Quantity::LeafSize.format(l.fan.diameter_m, units),
-                    l.rows,
-                    if l.rows == 1 { "row" } else { "rows" },
-                    l.fans_per_row,
-                    range_text(&e.min_canopy_top, units)
-                )
-            }
-            None => "For the target: no layout was found.".to_owned(),
-        },
-        FanSizing::NotReachable {
-            best_min_m_s,
-            target_m_s,
-        } => format!(
-            "For a target of {}: not reachable with the generic fan models — the best layout tried gives {} at the slowest point of the canopy top. Use larger fans, mount them closer to the crop or tilt them down.",
-            show_speed(*target_m_s, units),
-            show_speed(*best_min_m_s, units)
-        ),
-    }
-}
-
-/// Where more air stops helping, in words.
-#[must_use]
-pub fn returns_sentence(r: &DiminishingReturns, units: UnitSystem) -> String {
-    let dq = Quantity::TempDiff;
-    let step = show_speed(0.1, units);
-    let mut s = match r.knee_m_s {
-        Some(u) => format!(
-            "Where more air stops helping: beyond {} each further {step} cools the leaf by less than {}.",
-            show_speed(u, units),
-            dq.format_with(r.worth_it_k, units, 2)
-        ),
-        None => format!(
-            "Where more air stops helping: nowhere up to the end of the sweep — each {step} still cools the leaf by at least {}.",
-            dq.format_with(r.worth_it_k, units, 2)
-        ),
-    };
-    if let Some(u) = r.warming_from_m_s {
-        s.push_str(&format!(
-            " From {} more air warms the leaf (it is cooler than the air).",
-            show_speed(u, units)
-        ));
-    }
-    if let Some(u) = r.more_transpiration_from_m_s {
-        s.push_str(&format!(
-            " From {} more air raises transpiration (more water use).",
-            show_speed(u, units)
-        ));
-    }
-    s
-}
-
-/// The night dew answer, in words.
-#[must_use]
-pub fn night_sentence(m: &DewMargin, a: &DewAnswer, at_m_s: f64, units: UnitSystem) -> String {
-    let tq = Quantity::Temperature;
-    let dq = Quantity::TempDiff;
-    let t = |c: f64| show(tq, c, units);
-    let margin = format!(
-        "At night, at the slowest typical canopy air speed of {}, the leaf runs at {} with the dew point at {}: leaf − dew point = {}{}.",
-        show_speed(at_m_s, units),
-        t(m.leaf_temp_c),
-        t(m.dew_point_c),
-        show(dq, m.leaf_dew_diff_k, units),
-        if m.leaf_dew_diff_k < 0.0 {
-            " — water condenses on the leaves"
-        } else {
-            ""
-        }
-    );
-    let answer = match *a {
-        DewAnswer::NotNeeded {
-            still_air_leaf_temp_c,
-            target_c,
-        } => format!(
-            "Least air speed against dew: none needed — even in still air the leaf stays at {}, at or above the dew point plus margin ({}).",
-            t(still_air_leaf_temp_c),
-            t(target_c)
-        ),
-        DewAnswer::Speed {
-            speed_m_s,
-            leaf_temp_c,
-            target_c,
-        } => format!(
-            "Least air speed against dew: {} over the leaf keeps it at {} (dew point plus margin {}).",
-            show_speed(speed_m_s, units),
-            t(leaf_temp_c.max(target_c)),
-            t(target_c)
-        ),
-        DewAnswer::Unreachable(DewObstacle::AirTooHumid {
-            air_temp_c,
-            dew_point_c,
-            target_c,
-        }) => format!(
-            "Least air speed against dew: no air speed can do it — the air at {} has its dew point at {}, so even a leaf at air temperature is below the target of {}. Dry the air (heat and ventilate) instead.",
-            t(air_temp_c),
-            t(dew_point_c),
-            t(target_c)
-        ),
-        DewAnswer::Unreachable(DewObstacle::BeyondSearch {
-            max_speed_m_s,
-            leaf_temp_at_max_c,
-            target_c,
-        }) => format!(
-            "Least air speed against dew: not reachable with air alone — even at {} the leaf runs at {}, below the target of {}; the radiative loss to the sky or cover is too strong. A thermal screen or a little heat reduces it.",
-            show_speed(max_speed_m_s, units),
-            t(leaf_temp_at_max_c),
-            t(target_c)
-        ),
-    };
-    format!("{margin} {answer}")
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -1268,18 +1046,6 @@ fn profile_csv(path: &Path, run: &FansRun, units: UnitSystem) -> anyhow::Result<
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    #[test]
-    fn airflow_units_round_trip() {
-        // 1 cfm = 0.000 471 947 m³/s (exact from the international foot); 1 m³/s = 3600 m³/h.
-        for u in [FlowUnit::M3PerHour, FlowUnit::M3PerSecond, FlowUnit::Cfm] {
-            let x = 1.2;
-            assert!((u.from_display(u.to_display(x)) - x).abs() < 1e-12);
-        }
-        assert!((FlowUnit::M3PerHour.to_display(1.0) - 3600.0).abs() < 1e-9);
-        assert!((FlowUnit::Cfm.to_display(cfm_to_m3_s(1000.0)) - 1000.0).abs() < 1e-9);
-        assert_eq!(FlowUnit::Cfm.format(f64::NAN), "—");
-    }
 
     #[test]
     fn glasshouse_example_fans_run_has_all_answers() {

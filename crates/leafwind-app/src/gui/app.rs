@@ -97,6 +97,9 @@ pub struct Message {
 /// The screenshot-and-exit mode.
 struct ScreenshotState {
     path: PathBuf,
+    /// Before the window's screenshot, the plots area through "Export view as PNG" to this file
+    /// (`LEAFWIND_SCREENSHOT_VIEW_PNG`; CI checks the export path with it).
+    view_png: Option<PathBuf>,
     started: Instant,
     ready_frames: u32,
     requested: bool,
@@ -263,6 +266,7 @@ impl LeafwindApp {
         app.exit_code = exit_error;
         app.screenshot = screenshot.map(|path| ScreenshotState {
             path,
+            view_png: std::env::var_os("LEAFWIND_SCREENSHOT_VIEW_PNG").map(PathBuf::from),
             started: Instant::now(),
             ready_frames: 0,
             requested: false,
@@ -1305,11 +1309,17 @@ impl LeafwindApp {
         match finished {
             Some(Ok(())) => {
                 let msg = format!("Saved the view to {}.", p.display());
+                if self.screenshot.is_some() {
+                    eprintln!("leafwind: {msg}");
+                }
                 self.view_png = None;
                 self.note(&msg);
             }
             Some(Err(e)) => {
                 self.view_png = None;
+                if self.screenshot.is_some() {
+                    self.screenshot_failed(&e);
+                }
                 self.fail(&e);
             }
             None => ctx.request_repaint_after(Duration::from_millis(50)),
@@ -1344,6 +1354,14 @@ impl LeafwindApp {
 
     // ----- screenshot -----
 
+    /// Records a failure of the screenshot mode as the process's exit error.
+    fn screenshot_failed(&self, why: &str) {
+        eprintln!("leafwind: {why}");
+        if let Ok(mut c) = self.exit_code.lock() {
+            c.get_or_insert_with(|| why.to_owned());
+        }
+    }
+
     fn screenshot_step(&mut self, ctx: &egui::Context) {
         let ready = self.result.is_some()
             && self.results_current()
@@ -1359,6 +1377,17 @@ impl LeafwindApp {
             }
             // A few frames after the results arrived, so the map texture is on screen.
             if s.ready_frames >= 4 {
+                // First the view through "Export view as PNG", when asked for; then the window.
+                if let Some(view) = s.view_png.take() {
+                    self.export_view_png_to(view, ctx);
+                    if self.view_png.is_none() {
+                        self.screenshot_failed("the view could not be exported");
+                    }
+                    return;
+                }
+                if self.view_png.is_some() {
+                    return;
+                }
                 s.requested = true;
                 let done = s.done.clone();
                 let path = s.path.clone();

@@ -5,6 +5,7 @@
 use leafwind_physics::transpiration::{mol_to_g_per_m2_h, mol_to_mmol};
 use leafwind_physics::{LeafSolution, WindAnswer};
 use serde::Serialize;
+use std::io::Write;
 
 /// One solved leaf, per unit one-sided leaf area, both faces summed.
 #[derive(Debug, Clone, PartialEq, Serialize)]
@@ -113,4 +114,14 @@ impl LeafRecord {
             required_wind_reason: wind.map(WindAnswer::sentence),
         }
     }
+}
+
+/// Writes `value` as pretty JSON and a final newline (every command's `--json`).
+///
+/// # Errors
+/// A failed write.
+pub fn write_json(out: &mut impl Write, value: &impl Serialize) -> anyhow::Result<()> {
+    serde_json::to_writer_pretty(&mut *out, value)?;
+    writeln!(out)?;
+    Ok(())
 }

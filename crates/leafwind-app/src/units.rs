@@ -17,6 +17,14 @@ pub enum UnitSystem {
 }
 
 impl UnitSystem {
+    /// The commands' `--imperial` flag as a unit system.
+    #[must_use]
+    pub fn from_imperial_flag(imperial: bool) -> Self {
+        if imperial { Self::Imperial } else { Self::Si }
+    }
+}
+
+impl UnitSystem {
     /// The other system.
     #[must_use]
     pub fn toggled(self) -> Self {

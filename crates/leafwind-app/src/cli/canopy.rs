@@ -397,15 +397,10 @@ pub fn run(args: &CanopyArgs, out: &mut impl Write) -> Result<ExitCode> {
     let (doc, run) = document_and_run(args)?;
     let r = record_of(&doc, &run);
     if args.json {
-        serde_json::to_writer_pretty(&mut *out, &r)?;
-        writeln!(out)?;
+        crate::output::write_json(out, &r)?;
         return Ok(ExitCode::SUCCESS);
     }
-    let units = if args.imperial {
-        UnitSystem::Imperial
-    } else {
-        UnitSystem::Si
-    };
+    let units = UnitSystem::from_imperial_flag(args.imperial);
     write_text(out, &r, &doc, &run, units)?;
     Ok(ExitCode::SUCCESS)
 }

@@ -39,11 +39,7 @@ pub struct ReportArgs {
 pub fn run(args: &ReportArgs, out: &mut impl Write) -> Result<ExitCode> {
     let doc = ScenarioDocument::load(&args.scenario)
         .map_err(|e| anyhow!("{e} in {}", args.scenario.display()))?;
-    let units = if args.imperial {
-        UnitSystem::Imperial
-    } else {
-        UnitSystem::Si
-    };
+    let units = UnitSystem::from_imperial_flag(args.imperial);
     let files = write_report(&doc, &args.out, units)
         .map_err(|e| anyhow!("{e:#} (scenario {})", args.scenario.display()))?;
     writeln!(out, "{}", files.answer)?;

@@ -230,8 +230,7 @@ pub fn run_to(args: &ShapeArgs, out: &mut impl Write, err: &mut impl Write) -> R
         });
     }
     if args.json {
-        serde_json::to_writer_pretty(&mut *out, &entries)?;
-        writeln!(out)?;
+        crate::output::write_json(out, &entries)?;
     } else {
         for (k, entry) in entries.iter().enumerate() {
             if k > 0 {

@@ -203,8 +203,7 @@ pub fn run(args: &SolveArgs, out: &mut impl Write) -> Result<ExitCode> {
         None => {
             let record = args.solve()?;
             if args.json {
-                serde_json::to_writer_pretty(&mut *out, &record)?;
-                writeln!(out)?;
+                crate::output::write_json(out, &record)?;
             } else {
                 write_text(&record, out)?;
             }

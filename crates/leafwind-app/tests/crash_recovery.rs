@@ -4,6 +4,7 @@
 //! autosave in the window, its removal after a save, an unreadable autosave. Common practice, no
 //! source.
 
+#[path = "window/support.rs"]
 mod gui_support;
 
 use std::io::{BufRead as _, BufReader};

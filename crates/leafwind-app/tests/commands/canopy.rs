@@ -1,11 +1,9 @@
 //! `leafwind canopy`: the JSON answer for an open field with a design day, a greenhouse with a
 //! shade answer, a weather file with a bad row, and a scenario with no canopy section.
 
-mod cli_support;
-
 use std::path::PathBuf;
 
-use cli_support::write;
+use crate::support::write;
 
 use leafwind_app::canopy_scenario::{CanopySection, GreenhouseSection, InsideMode};
 use leafwind_app::cli::canopy::{CanopyArgs, run};
@@ -17,7 +15,7 @@ use leafwind_physics::greenhouse::Cover;
 use leafwind_physics::heat_rules::HeatRule;
 
 fn temp_dir(name: &str) -> PathBuf {
-    cli_support::temp_dir("canopy", name)
+    crate::support::temp_dir("canopy", name)
 }
 
 fn json(path: PathBuf) -> serde_json::Value {
@@ -31,9 +29,7 @@ fn json(path: PathBuf) -> serde_json::Value {
         &mut out,
     )
     .unwrap();
-    let text = String::from_utf8(out).unwrap();
-    assert!(!text.contains("NaN") && !text.contains("inf"));
-    serde_json::from_str(&text).unwrap()
+    crate::support::parse_json(out)
 }
 
 fn hot_field() -> ScenarioDocument {

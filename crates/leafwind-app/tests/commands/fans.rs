@@ -1,11 +1,9 @@
 //! `leafwind fans`: the canopy air-speed range of a layout, sizing for a target, spot readings
 //! with a bad row, the night dew check, and a scenario with no fans section.
 
-mod cli_support;
-
 use std::path::PathBuf;
 
-use cli_support::write;
+use crate::support::write;
 
 use leafwind_app::cli::fans::{FansArgs, run};
 use leafwind_app::document::ScenarioDocument;
@@ -13,7 +11,7 @@ use leafwind_app::fans_scenario::{FansSection, NightCheck};
 use leafwind_physics::{Humidity, UpperView};
 
 fn temp_dir(name: &str) -> PathBuf {
-    cli_support::temp_dir("fans", name)
+    crate::support::temp_dir("fans", name)
 }
 
 fn json(path: PathBuf) -> serde_json::Value {
@@ -27,9 +25,7 @@ fn json(path: PathBuf) -> serde_json::Value {
         &mut out,
     )
     .unwrap();
-    let text = String::from_utf8(out).unwrap();
-    assert!(!text.contains("NaN") && !text.contains("inf"));
-    serde_json::from_str(&text).unwrap()
+    crate::support::parse_json(out)
 }
 
 #[test]

@@ -1,4 +1,5 @@
-//! Helpers shared by the command-line tests: a scratch folder and a scenario written into it.
+//! Helpers shared by the command-line tests: a scratch folder, a scenario written into it, and
+//! a command's JSON output parsed.
 
 use std::path::{Path, PathBuf};
 
@@ -16,4 +17,11 @@ pub fn write(doc: &ScenarioDocument, dir: &Path) -> PathBuf {
     let path = dir.join("scenario.ron");
     std::fs::write(&path, doc.to_ron().unwrap()).unwrap();
     path
+}
+
+/// A command's JSON output parsed, after checking that no "NaN" or "inf" was written.
+pub fn parse_json(out: Vec<u8>) -> serde_json::Value {
+    let text = String::from_utf8(out).unwrap();
+    assert!(!text.contains("NaN") && !text.contains("inf"), "{text}");
+    serde_json::from_str(&text).unwrap()
 }

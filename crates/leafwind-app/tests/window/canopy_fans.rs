@@ -3,12 +3,10 @@
 //! an input changed by its label changes the result; an invalid input shows a field error in words
 //! and the last valid result stays; the plots' data export as CSV.
 
-mod gui_support;
-
 use egui::accesskit::Role;
 
+use crate::support::{assert_no_non_finite, harness, has_text, non_finite_texts, set_slider};
 use egui_kittest::kittest::{NodeT as _, Queryable};
-use gui_support::{assert_no_non_finite, harness, has_text, non_finite_texts, set_slider};
 use leafwind_app::document::{ScenarioDocument, first_example};
 use leafwind_app::gui::commands::Command;
 use leafwind_app::gui::prefs::PlotTab;

@@ -2,12 +2,10 @@
 //! the document as it was; open through the path field; confirmation before discarding edits;
 //! save and CSV export.
 
-mod gui_support;
-
 use std::path::PathBuf;
 
+use crate::support::{harness, has_text, non_finite_texts, set_slider};
 use egui_kittest::kittest::Queryable;
-use gui_support::{harness, has_text, non_finite_texts, set_slider};
 use leafwind_app::document::{EXAMPLES, ScenarioDocument};
 use leafwind_app::gui::commands::{Command, PlotKind};
 use leafwind_app::gui::prefs::PlotTab;

@@ -3,12 +3,10 @@
 //! migrate, a failed open leaves the document as it was, saves are atomic, and saving over a file
 //! another program changed asks first. Invariants of the file format (common practice, no source).
 
-mod gui_support;
-
 use std::path::{Path, PathBuf};
 
+use crate::support::{harness, has_text, set_slider};
 use egui_kittest::kittest::Queryable as _;
-use gui_support::{harness, has_text, set_slider};
 use leafwind_app::document::{
     DOCUMENT_VERSION, EXAMPLES, LoadError, MIGRATIONS, ScenarioDocument, migrate,
 };

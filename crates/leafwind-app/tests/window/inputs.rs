@@ -2,11 +2,9 @@
 //! numeric input at its minimum, maximum and an invalid value gives no panic, no "NaN" or "inf"
 //! on screen, and a visible error in words; the unsaved marker appears after an edit.
 
-mod gui_support;
-
+use crate::support::{assert_no_non_finite, harness, has_text, non_finite_texts, set_slider};
 use egui::accesskit::Role;
 use egui_kittest::kittest::Queryable;
-use gui_support::{assert_no_non_finite, harness, has_text, non_finite_texts, set_slider};
 use leafwind_app::document::ScenarioDocument;
 use leafwind_app::gui::commands::Command;
 use leafwind_physics::air::saturation_vapour_pressure_kpa;

@@ -3,13 +3,11 @@
 //! unsaved; an invalid parameter shows a field error; a malformed outline shows its row and keeps
 //! the shape; compare copies of the scenario, see the best markers, export the table.
 
-mod gui_support;
-
 use std::path::PathBuf;
 
+use crate::support::{assert_no_non_finite, harness, has_text, non_finite_texts, set_slider};
 use egui::accesskit::Role;
 use egui_kittest::kittest::Queryable;
-use gui_support::{assert_no_non_finite, harness, has_text, non_finite_texts, set_slider};
 use leafwind_app::document::ScenarioDocument;
 use leafwind_app::gui::panels::compare::{
     Better, CompareEntry, CompareInput, CompareTable, best_flags, compute_compare, table_csv,

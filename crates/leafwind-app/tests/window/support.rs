@@ -1,4 +1,5 @@
-//! Shared helpers of the window tests (included by each `gui_*.rs` test file with `mod`).
+//! Shared helpers of the window tests (a module of the `window` test binary;
+//! `crash_recovery.rs` includes it by path).
 
 #![allow(dead_code)]
 

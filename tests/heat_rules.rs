@@ -1,22 +1,34 @@
-//! Heat rules with durations over hourly series. These are counting checks on invented series (a
-//! rule's thresholds and durations are the user's; rules of this form are common practice, no
-//! source): a worked count, the in-a-row variants, the design-day case, unsolved hours, calendar
-//! runs across month and year ends, and invariants as properties.
+//! Heat rules with durations over hourly and finer series. These are counting checks on invented
+//! series (a rule's thresholds and durations are the user's; rules of this form are common
+//! practice, no source): a worked count, the in-a-row variants, the design-day case, unsolved
+//! hours, calendar runs across month and year ends, records logged every 15 min and with gaps, and
+//! invariants as properties (among them: the same temperatures logged at a finer step give the
+//! same hours).
 
 use leafwind_physics::crops::{HeatLimit, LimitKind};
-use leafwind_physics::design_day::{HourResult, HourlySeries};
+use leafwind_physics::design_day::{HourResult, HourlySeries, row_durations_h, summarise_hours};
 use leafwind_physics::heat_rules::{HeatRule, Verdict, check_rule};
 use leafwind_physics::sun::DateTime;
 use proptest::prelude::*;
 
 fn hour(date: (i32, u32, u32), h: u32, air_c: f64, leaf_c: Option<f64>) -> HourResult {
+    at_minute(date, h, 0, air_c, leaf_c)
+}
+
+fn at_minute(
+    date: (i32, u32, u32),
+    h: u32,
+    minute: u32,
+    air_c: f64,
+    leaf_c: Option<f64>,
+) -> HourResult {
     HourResult {
         time: DateTime {
             year: date.0,
             month: date.1,
             day: date.2,
             hour: h,
-            minute: 0,
+            minute,
         },
         air_temp_c: air_c,
         inside_air_temp_c: None,
@@ -28,19 +40,31 @@ fn hour(date: (i32, u32, u32), h: u32, air_c: f64, leaf_c: Option<f64>) -> HourR
         compared_temp_c: leaf_c,
         margin_k: leaf_c.map(|t| 45.0 - t),
         error: None,
+        duration_h: 1.0,
     }
 }
 
+/// The rows summed up as the engine does (which sets each row's duration from the times).
 fn series(hours: Vec<HourResult>) -> HourlySeries {
-    HourlySeries {
+    summarise_hours(
         hours,
-        limit: HeatLimit::user("test crop", "any", 45.0, LimitKind::Tissue),
-        hours_over_limit: 0.0,
-        degree_hours_over_k_h: 0.0,
-        min_margin_k: None,
-        max_leaf_temp_c: None,
-        failed_hours: 0,
-    }
+        &HeatLimit::user("test crop", "any", 45.0, LimitKind::Tissue),
+    )
+}
+
+/// Each row of `hourly` logged `per_hour` times in its hour (at equal steps, same values).
+fn refine(hourly: &[HourResult], per_hour: u32) -> Vec<HourResult> {
+    let step = 60 / per_hour;
+    hourly
+        .iter()
+        .flat_map(|h| {
+            (0..per_hour).map(move |k| {
+                let mut r = h.clone();
+                r.time.minute = k * step;
+                r
+            })
+        })
+        .collect()
 }
 
 /// A day at 30 °C with the given hours at 41 °C.
@@ -68,11 +92,11 @@ fn three_hours_above_forty_on_two_days() {
     assert_eq!(o.verdict, Verdict::Met);
     assert_eq!(o.days_meeting, 2);
     assert_eq!(o.first_met, Some((2027, 7, 16)));
-    assert_eq!(o.most_hours_in_a_day(), 4);
-    let hours: Vec<u32> = o.days.iter().map(|d| d.hours_above).collect();
-    assert_eq!(hours, [4, 2, 3]);
-    let runs: Vec<u32> = o.days.iter().map(|d| d.longest_run_h).collect();
-    assert_eq!(runs, [4, 2, 2]);
+    assert_eq!(o.most_hours_in_a_day(), 4.0);
+    let hours: Vec<f64> = o.days.iter().map(|d| d.hours_above).collect();
+    assert_eq!(hours, [4.0, 2.0, 3.0]);
+    let runs: Vec<f64> = o.days.iter().map(|d| d.longest_run_h).collect();
+    assert_eq!(runs, [4.0, 2.0, 2.0]);
 }
 
 /// In a row: 3 h in one run happens only on the 14th, so not on two days; the 14th and the 16th
@@ -140,9 +164,9 @@ fn leaf_rule_and_unsolved_hours() {
         ..HeatRule::default()
     };
     let o = check_rule(&leaf, &s).unwrap();
-    assert_eq!(o.days[0].hours_above, 3);
-    assert_eq!(o.days[0].longest_run_h, 2);
-    assert_eq!(o.unsolved_hours(), 1);
+    assert_eq!(o.days[0].hours_above, 3.0);
+    assert_eq!(o.days[0].longest_run_h, 2.0);
+    assert_eq!(o.unsolved_hours(), 1.0);
     assert_eq!(o.verdict, Verdict::NotMet);
 }
 
@@ -164,6 +188,102 @@ fn days_in_a_row_across_month_and_year_ends() {
     let o = check_rule(&rule, &series(gap)).unwrap();
     assert_eq!(o.verdict, Verdict::NotMet);
     assert_eq!(o.longest_day_run, 2);
+}
+
+/// A climate computer's 15-min record of the same three days: the same hours, runs and verdicts
+/// as the hourly one (each row stands for 15 min), and the series' hours over the limit too.
+#[test]
+fn a_fifteen_minute_record_counts_clock_hours() {
+    let hourly = three_days();
+    let fine = series(refine(&hourly.hours, 4));
+    assert_eq!(fine.hours.len(), 4 * hourly.hours.len());
+    assert!(
+        fine.hours
+            .iter()
+            .all(|h| (h.duration_h - 0.25).abs() < 1e-12)
+    );
+    for rule in [
+        HeatRule::default(),
+        HeatRule {
+            hours_in_a_row: true,
+            days: 1,
+            ..HeatRule::default()
+        },
+    ] {
+        let a = check_rule(&rule, &hourly).unwrap();
+        let b = check_rule(&rule, &fine).unwrap();
+        assert_eq!(a.verdict, b.verdict);
+        assert_eq!(a.first_met, b.first_met);
+        for (x, y) in a.days.iter().zip(&b.days) {
+            assert!((x.hours_above - y.hours_above).abs() < 1e-9);
+            assert!((x.longest_run_h - y.longest_run_h).abs() < 1e-9);
+            assert!((x.hours_in_series - y.hours_in_series).abs() < 1e-9);
+        }
+    }
+    // The leaf is 43 °C in the 9 hot hours against a 45 °C limit: none over; at 42 °C, 9 h.
+    assert_eq!(hourly.hours_over_limit, 0.0);
+    let limit = HeatLimit::user("test crop", "any", 42.0, LimitKind::Tissue);
+    let h = summarise_hours(hourly.hours.clone(), &limit);
+    let f = summarise_hours(fine.hours.clone(), &limit);
+    assert!((h.hours_over_limit - 9.0).abs() < 1e-9);
+    assert!((f.hours_over_limit - h.hours_over_limit).abs() < 1e-9);
+    assert!((f.degree_hours_over_k_h - h.degree_hours_over_k_h).abs() < 1e-9);
+}
+
+/// Durations: a regular step gives that step to every row; a gap in the record does not count
+/// (the row before it keeps the record's step) and breaks a run; a lone row stands for an hour.
+#[test]
+fn row_durations_and_gaps() {
+    let t = |h: u32, m: u32| DateTime::date(2027, 7, 14).at(h, m);
+    let d = row_durations_h(&[t(10, 0), t(10, 10), t(10, 20), t(10, 30)]);
+    assert!(d.iter().all(|x| (x - 1.0 / 6.0).abs() < 1e-12), "{d:?}");
+    let d = row_durations_h(&[t(10, 0), t(10, 30), t(11, 0), t(14, 0), t(14, 30)]);
+    assert_eq!(d, [0.5, 0.5, 0.5, 0.5, 0.5]);
+    // An hourly record with a missing hour at its sparse end: still 1 h a row (the record's step).
+    let d = row_durations_h(&[
+        t(12, 0),
+        t(13, 0),
+        t(14, 0),
+        DateTime::date(2027, 7, 15).at(12, 0),
+        DateTime::date(2027, 7, 15).at(14, 0),
+    ]);
+    assert_eq!(d, [1.0; 5]);
+    assert_eq!(row_durations_h(&[t(12, 0)]), [1.0]);
+    assert!(row_durations_h(&[]).is_empty());
+    // Over midnight and a month end.
+    let d = row_durations_h(&[
+        DateTime::date(2027, 7, 31).at(23, 0),
+        DateTime::date(2027, 8, 1).at(0, 0),
+    ]);
+    assert_eq!(d, [1.0, 1.0]);
+
+    // 10:00–12:00 above 40 °C, missing rows 12:00–14:00, 14:00–15:00 above: 3 h in all, runs of
+    // at most 2 h.
+    let mut rows: Vec<HourResult> = (0..10)
+        .map(|i| at_minute((2027, 7, 14), 10 + i / 2, (i % 2) * 30, 41.0, Some(43.0)))
+        .filter(|r| !(12..14).contains(&r.time.hour))
+        .collect();
+    rows.push(at_minute((2027, 7, 14), 15, 0, 30.0, Some(32.0)));
+    let s = series(rows);
+    let in_a_row = HeatRule {
+        hours: 3,
+        hours_in_a_row: true,
+        days: 1,
+        ..HeatRule::default()
+    };
+    let o = check_rule(&in_a_row, &s).unwrap();
+    assert!(
+        (o.days[0].hours_above - 3.0).abs() < 1e-9,
+        "{:?}",
+        o.days[0]
+    );
+    assert!((o.days[0].longest_run_h - 2.0).abs() < 1e-9);
+    assert_eq!(o.verdict, Verdict::NotMet);
+    let in_total = HeatRule {
+        hours_in_a_row: false,
+        ..in_a_row
+    };
+    assert_eq!(check_rule(&in_total, &s).unwrap().verdict, Verdict::Met);
 }
 
 /// Errors, not panics: an invalid rule, hours out of time order, and an empty series.
@@ -229,5 +349,31 @@ proptest! {
         }
         let in_row = check_rule(&HeatRule { hours_in_a_row: true, ..base }, &s).unwrap();
         prop_assert!(in_row.days_meeting <= o.days_meeting);
+    }
+
+    /// The same temperatures logged 2, 4, 6 or 12 times an hour give the same hours above, runs
+    /// and verdicts as the hourly record (durations weight the rows; invariant, no source).
+    #[test]
+    fn a_finer_record_of_the_same_hours_counts_the_same(
+        temps in prop::collection::vec(20.0f64..50.0, 24..(24 * 4)),
+        above in 25.0f64..45.0,
+        hours in 1u32..8,
+        in_a_row in any::<bool>(),
+        per_hour in prop::sample::select(vec![2u32, 4, 6, 12]),
+    ) {
+        let hourly: Vec<HourResult> = temps
+            .iter()
+            .enumerate()
+            .map(|(i, &t)| hour((2027, 7, 1 + (i / 24) as u32), (i % 24) as u32, t, Some(t)))
+            .collect();
+        let rule = HeatRule { above_c: above, hours, hours_in_a_row: in_a_row, days: 1, ..HeatRule::default() };
+        let a = check_rule(&rule, &series(hourly.clone())).unwrap();
+        let b = check_rule(&rule, &series(refine(&hourly, per_hour))).unwrap();
+        prop_assert_eq!(a.verdict, b.verdict);
+        prop_assert_eq!(a.days_meeting, b.days_meeting);
+        for (x, y) in a.days.iter().zip(&b.days) {
+            prop_assert!((x.hours_above - y.hours_above).abs() < 1e-9);
+            prop_assert!((x.longest_run_h - y.longest_run_h).abs() < 1e-9);
+        }
     }
 }

@@ -96,3 +96,50 @@ fn run_over_imported_rows() {
         assert!(h.sun_elevation_rad.unwrap().is_finite() && h.global_w_m2.unwrap().is_finite());
     }
 }
+
+/// A climate computer's 15-min record: each row stands for 15 min, so a hot afternoon logged every
+/// 15 min gives the same clock hours over an air limit as the same afternoon logged hourly, and a
+/// heat rule reads it without complaint (invented data; the counting is this engine's convention,
+/// `design_day::row_durations_h`).
+#[test]
+fn a_fifteen_minute_file_counts_clock_hours() {
+    use leafwind_physics::crops::{HeatLimit, LimitKind};
+    use leafwind_physics::heat_rules::{HeatRule, Verdict, check_rule};
+    let row = |h: u32, m: u32| {
+        let t = if (12..15).contains(&h) { 41.0 } else { 30.0 };
+        format!("2026-07-01 {h:02}:{m:02},{t},35,1.5,600\n")
+    };
+    let header = "time,air_temp_c,rh_pct,wind_m_s,shortwave_w_m2\n";
+    let hourly: String = std::iter::once(header.to_owned())
+        .chain((9..18).map(|h| row(h, 0)))
+        .collect();
+    let fine: String = std::iter::once(header.to_owned())
+        .chain((9..18).flat_map(|h| [0, 15, 30, 45].map(|m| row(h, m))))
+        .collect();
+    let case = SeriesCase {
+        limit: HeatLimit::user("test crop", "any", 40.0, LimitKind::Air),
+        ..SeriesCase::default()
+    };
+    let a = run_series(&parse_csv(&hourly).unwrap().records, &case).unwrap();
+    let b = run_series(&parse_csv(&fine).unwrap().records, &case).unwrap();
+    assert_eq!(b.hours.len(), 4 * a.hours.len());
+    assert!(
+        (a.hours_over_limit - 3.0).abs() < 1e-9,
+        "{}",
+        a.hours_over_limit
+    );
+    assert!(
+        (b.hours_over_limit - 3.0).abs() < 1e-9,
+        "{}",
+        b.hours_over_limit
+    );
+    assert!((b.degree_hours_over_k_h - 3.0).abs() < 1e-9);
+    let rule = HeatRule {
+        hours_in_a_row: true,
+        days: 1,
+        ..HeatRule::default()
+    };
+    let o = check_rule(&rule, &b).unwrap();
+    assert_eq!(o.verdict, Verdict::Met);
+    assert!((o.days[0].longest_run_h - 3.0).abs() < 1e-9);
+}

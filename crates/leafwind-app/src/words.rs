@@ -58,6 +58,20 @@ pub fn num(x: f64, decimals: usize) -> String {
     if s == "–" { "—".to_owned() } else { s }
 }
 
+/// A number of hours for a sentence, without the unit: whole hours as "3", a finer record's
+/// fractions to two decimals ("2.25", "1.5"); "—" when not finite.
+#[must_use]
+pub fn hours(h: f64) -> String {
+    if !h.is_finite() {
+        return "—".to_owned();
+    }
+    if (h - h.round()).abs() < 0.005 {
+        return num(h.round(), 0);
+    }
+    let s = num(h, 2);
+    s.trim_end_matches('0').trim_end_matches('.').to_owned()
+}
+
 /// The least canopy-top air speed, in one sentence.
 #[must_use]
 pub fn speed_sentence(a: &SpeedAnswer, units: UnitSystem) -> String {
@@ -239,10 +253,10 @@ pub fn rule_sentence(o: &RuleOutcome, over: &str, units: UnitSystem) -> String {
     let rule = o
         .rule
         .words_with(&show(Quantity::Temperature, o.rule.above_c, units));
-    let most = o.most_hours_in_a_day();
+    let most = hours(o.most_hours_in_a_day());
     let unsolved = match o.unsolved_hours() {
-        0 => String::new(),
-        n => format!(" ({n} h could not be solved and are not counted)"),
+        n if n <= 0.0 => String::new(),
+        n => format!(" ({} h could not be solved and are not counted)", hours(n)),
     };
     let date = |(y, m, d): (i32, u32, u32)| format!("{y:04}-{m:02}-{d:02}");
     match o.verdict {

@@ -50,7 +50,7 @@ use crate::constants::{
 };
 use crate::design_day::{
     DesignDay, Environment, GreenhouseSetup, HourWeather, HourlySeries, SeriesCase,
-    design_day_weather, run_hours,
+    design_day_weather, row_durations_h, run_hours, summarise_hours,
 };
 use crate::error::{PhysicsError, Result, ValidRange};
 use crate::greenhouse::{GreenhouseCase, solve_greenhouse};
@@ -601,21 +601,23 @@ pub fn compare_hours(
         ..AIR_TEMP_RANGE_C
     }
     .check(run_above_c)?;
+    let times: Vec<_> = weather.iter().map(|w| w.time).collect();
+    let durations_h = row_durations_h(&times);
     let mut rows = Vec::with_capacity(options.len());
     for opt in options {
         opt.validate()?;
         let mut water = 0.0;
         let mut on_hours = 0.0;
         let mut hours = Vec::with_capacity(weather.len());
-        for w in weather {
+        for (w, duration_h) in weather.iter().zip(&durations_h) {
             let on = w.air_temp_c >= run_above;
             let mut w2 = *w;
             if on {
-                on_hours += 1.0;
+                on_hours += duration_h;
                 let cooled = opt
                     .evaporative
                     .apply(w.air_temp_c, w.humidity, w.pressure_kpa)?;
-                water += cooled.water_kg_m3 * setup.ventilation_m3_m2_s * 3600.0;
+                water += cooled.water_kg_m3 * setup.ventilation_m3_m2_s * 3600.0 * duration_h;
                 w2.air_temp_c = cooled.outlet_temp_c;
                 w2.humidity = Humidity::RelativePct(cooled.outlet_rh_pct.clamp(0.0, 100.0));
             }
@@ -649,7 +651,7 @@ pub fn compare_hours(
                 }
             })
             .collect();
-        let series = summarise(merged, &case.limit);
+        let series = summarise_hours(merged, &case.limit);
         rows.push(OptionDay {
             label: opt.label.clone(),
             hottest_leaf_temp_c: series.max_leaf_temp_c,
@@ -682,43 +684,6 @@ pub fn compare_design_day(
         options,
         run_above_c,
     )
-}
-
-/// The engine's hourly summary, rebuilt for merged hours (mirrors the private
-/// `design_day::summarise`; a public summariser there would remove this copy).
-fn summarise(
-    hours: Vec<crate::design_day::HourResult>,
-    limit: &crate::crops::HeatLimit,
-) -> HourlySeries {
-    let mut over = 0.0;
-    let mut dh = 0.0;
-    let mut min_margin: Option<f64> = None;
-    let mut max_leaf: Option<f64> = None;
-    let mut failed = 0;
-    for h in &hours {
-        match (h.compared_temp_c, h.margin_k) {
-            (Some(t), Some(m)) => {
-                if t > limit.limit_c {
-                    over += 1.0;
-                    dh += t - limit.limit_c;
-                }
-                min_margin = Some(min_margin.map_or(m, |x| x.min(m)));
-            }
-            _ => failed += 1,
-        }
-        if let Some(t) = h.hottest_leaf_temp_c {
-            max_leaf = Some(max_leaf.map_or(t, |x| x.max(t)));
-        }
-    }
-    HourlySeries {
-        hours,
-        limit: limit.clone(),
-        hours_over_limit: over,
-        degree_hours_over_k_h: dh,
-        min_margin_k: min_margin,
-        max_leaf_temp_c: max_leaf,
-        failed_hours: failed,
-    }
 }
 
 #[cfg(test)]

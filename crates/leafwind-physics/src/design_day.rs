@@ -4,8 +4,10 @@
 //! canopy (in the open or in a greenhouse), its margin to a crop heat limit, and the day's hours and
 //! degree-hours over the limit.
 //!
-//! Each result stands for one hour (hours over the limit count 1 h each; degree-hours add
-//! max(0, T − T_limit) × 1 h). The temperature compared with the limit is the hottest leaf for a
+//! Each result stands for a duration Δt ([`row_durations_h`]): one hour on a design day and in an
+//! hourly file, the logging interval in a finer one (a climate computer's 5 or 15 min). Hours over
+//! the limit add Δt for each row above it; degree-hours add max(0, T − T_limit) × Δt. The
+//! temperature compared with the limit is the hottest leaf for a
 //! [`LimitKind::Tissue`] limit and the air around the crop (inside air in a greenhouse) for a
 //! [`LimitKind::Air`] limit.
 //!
@@ -267,6 +269,8 @@ pub struct HourResult {
     pub margin_k: Option<f64>,
     /// Why the hour could not be solved.
     pub error: Option<String>,
+    /// The time this row stands for \[h\] ([`row_durations_h`]).
+    pub duration_h: f64,
 }
 
 /// A run of hours and its summary.
@@ -378,6 +382,7 @@ pub fn evaluate_hour(
         compared_temp_c: Some(compared),
         margin_k: Some(case.limit.margin_k(compared)),
         error: None,
+        duration_h: 1.0,
     })
 }
 
@@ -402,6 +407,7 @@ pub fn run_hours(case: &SeriesCase, weather: &[HourWeather]) -> Result<HourlySer
             compared_temp_c: None,
             margin_k: None,
             error: Some(format!("{}: {e}", w.time)),
+            duration_h: 1.0,
         })
     };
     let threads = std::thread::available_parallelism()
@@ -427,11 +433,51 @@ pub fn run_hours(case: &SeriesCase, weather: &[HourWeather]) -> Result<HourlySer
             "an hourly worker stopped unexpectedly".into(),
         ));
     }
-    Ok(summarise(hours, &case.limit))
+    Ok(summarise_hours(hours, &case.limit))
 }
 
-/// Sums up the hours; unsolved hours carry None and their error (never a NaN).
-fn summarise(hours: Vec<HourResult>, limit: &HeatLimit) -> HourlySeries {
+/// The time each row of a series stands for \[h\]: the record's logging step — the lower median of
+/// the intervals between rows — or the interval to the next row where that is shorter. A regular
+/// record of any step (hourly, 15 min, 5 min) thus counts each row for that step; a gap in the
+/// record (missing rows) is not counted as hours of the row before it; and the last row stands for
+/// one step. A lone row stands for one hour. Times are expected in increasing order (the weather
+/// import and the design day ensure it); a repeated time counts for nothing.
+///
+/// This is this engine's convention (no source): a record's rows are read as samples of a
+/// piecewise-constant temperature held for one logging step, the usual reading of logged climate
+/// data. A record that changes its step part-way counts the rows of the rarer step at the more
+/// common one.
+#[must_use]
+pub fn row_durations_h(times: &[DateTime]) -> Vec<f64> {
+    if times.len() < 2 {
+        return vec![1.0; times.len()];
+    }
+    let minutes: Vec<i64> = times.iter().map(DateTime::minutes_since_epoch).collect();
+    let gaps_h: Vec<f64> = minutes
+        .windows(2)
+        .map(|w| (w[1] - w[0]).max(0) as f64 / 60.0)
+        .collect();
+    let mut positive: Vec<f64> = gaps_h.iter().copied().filter(|g| *g > 0.0).collect();
+    positive.sort_by(f64::total_cmp);
+    let Some(&step_h) = positive.get(positive.len().saturating_sub(1) / 2) else {
+        return vec![0.0; times.len()];
+    };
+    gaps_h
+        .iter()
+        .map(|g| g.min(step_h))
+        .chain(std::iter::once(step_h))
+        .collect()
+}
+
+/// Sums up a run of hours (in time order): sets each row's [`HourResult::duration_h`], and adds
+/// the hours and degree-hours over `limit`, the least margin and the hottest leaf. Unsolved hours
+/// carry None and their error (never a NaN) and are counted as failed.
+#[must_use]
+pub fn summarise_hours(mut hours: Vec<HourResult>, limit: &HeatLimit) -> HourlySeries {
+    let times: Vec<DateTime> = hours.iter().map(|h| h.time).collect();
+    for (h, d) in hours.iter_mut().zip(row_durations_h(&times)) {
+        h.duration_h = d;
+    }
     let mut over = 0.0;
     let mut degree_hours = 0.0;
     let mut min_margin: Option<f64> = None;
@@ -441,8 +487,8 @@ fn summarise(hours: Vec<HourResult>, limit: &HeatLimit) -> HourlySeries {
         match (h.compared_temp_c, h.margin_k) {
             (Some(t), Some(m)) => {
                 if t > limit.limit_c {
-                    over += 1.0;
-                    degree_hours += t - limit.limit_c;
+                    over += h.duration_h;
+                    degree_hours += (t - limit.limit_c) * h.duration_h;
                 }
                 min_margin = Some(min_margin.map_or(m, |x: f64| x.min(m)));
             }

@@ -4,8 +4,11 @@
 //! A rule names the temperature it is about (the air around the crop, or the hottest leaf: the
 //! [`LimitKind`] of crop limits), a threshold, how long within one day the temperature must be above
 //! it (in total, or in one unbroken run), and on how many days that must happen (in total, or on
-//! days in a row). Each row of a series stands for one hour ([`crate::weather`]); a day is a
-//! calendar date of the series' local clock time.
+//! days in a row). Each row of a series stands for its duration
+//! ([`crate::design_day::row_durations_h`]: one hour in an hourly record, the logging step in a
+//! finer one), so "3 h" means three hours of clock time whatever the step; a day is a calendar date
+//! of the series' local clock time. A run "in a row" is broken by a row at or below the threshold,
+//! an unsolved row, or a gap in the record.
 //!
 //! Rules of this form are common practice (no source): the thresholds and durations are the user's,
 //! from their crop adviser or their own records. Leafwind counts; it does not say which rule a crop
@@ -14,7 +17,7 @@
 use crate::crops::LimitKind;
 use crate::design_day::{HourResult, HourlySeries};
 use crate::error::{PhysicsError, Result, ValidRange};
-use crate::sun::DateTime;
+use crate::sun::{DateTime, days_from_civil};
 
 /// Valid rule thresholds \[°C\].
 pub const THRESHOLD_RANGE_C: ValidRange = ValidRange {
@@ -129,14 +132,14 @@ pub struct RuleDay {
     /// The date (year, month, day).
     pub date: (i32, u32, u32),
     /// Hours above the threshold that day \[h\].
-    pub hours_above: u32,
-    /// Longest unbroken run of hours above it \[h\] (a run is broken by an hour at or below the
-    /// threshold, an unsolved hour, or a missing hour).
-    pub longest_run_h: u32,
-    /// Hours of that day in the series.
-    pub hours_in_series: u32,
-    /// Hours of that day that could not be solved (not counted as above).
-    pub unsolved_hours: u32,
+    pub hours_above: f64,
+    /// Longest unbroken run of hours above it \[h\] (a run is broken by a row at or below the
+    /// threshold, an unsolved row, or a gap in the record).
+    pub longest_run_h: f64,
+    /// Hours of that day in the series \[h\].
+    pub hours_in_series: f64,
+    /// Hours of that day that could not be solved (not counted as above) \[h\].
+    pub unsolved_hours: f64,
     /// Whether the day meets the rule's daily condition.
     pub meets: bool,
 }
@@ -177,92 +180,94 @@ pub struct RuleOutcome {
 impl RuleOutcome {
     /// Most hours above the threshold on any one day \[h\].
     #[must_use]
-    pub fn most_hours_in_a_day(&self) -> u32 {
-        self.days.iter().map(|d| d.hours_above).max().unwrap_or(0)
+    pub fn most_hours_in_a_day(&self) -> f64 {
+        self.days.iter().map(|d| d.hours_above).fold(0.0, f64::max)
     }
 
-    /// Hours of the series that could not be solved.
+    /// Hours of the series that could not be solved \[h\].
     #[must_use]
-    pub fn unsolved_hours(&self) -> u32 {
+    pub fn unsolved_hours(&self) -> f64 {
         self.days.iter().map(|d| d.unsolved_hours).sum()
     }
 }
 
-/// Days since 1970-01-01 of a proleptic Gregorian date (Hinnant, H., "chrono-compatible low-level
-/// date algorithms", `days_from_civil`; public-domain algorithm).
-fn days_from_civil(y: i32, m: u32, d: u32) -> i64 {
-    let y = i64::from(y) - i64::from(m <= 2);
-    let era = y.div_euclid(400);
-    let yoe = y - era * 400;
-    let m = i64::from(m);
-    let doy = (153 * (if m > 2 { m - 3 } else { m + 9 }) + 2) / 5 + i64::from(d) - 1;
-    let doe = yoe * 365 + yoe / 4 - yoe / 100 + doy;
-    era * 146_097 + doe - 719_468
-}
+/// Rows closer than this to the end of the previous row's duration continue a run \[min\].
+const RUN_JOIN_TOLERANCE_MIN: f64 = 0.5;
 
 fn date_of(t: &DateTime) -> (i32, u32, u32) {
     (t.year, t.month, t.day)
 }
 
-/// Checks `rule` over the hours of `series` (in time order; each row one hour).
+/// Checks `rule` over the rows of `series` (in time order; each row stands for its
+/// [`HourResult::duration_h`]).
 ///
 /// # Errors
-/// An invalid rule, or hours out of time order.
+/// An invalid rule, or rows out of time order.
 pub fn check_rule(rule: &HeatRule, series: &HourlySeries) -> Result<RuleOutcome> {
     rule.validate()?;
     let mut days: Vec<RuleDay> = Vec::new();
-    let mut run = 0u32;
-    let mut last: Option<(i64, u32)> = None; // (day number, hour) of the previous row
+    let mut run_h = 0.0;
+    // Minutes since the epoch of the previous row's start and end.
+    let mut last: Option<(i64, f64)> = None;
     for h in &series.hours {
         let date = date_of(&h.time);
-        let day_no = days_from_civil(date.0, date.1, date.2);
-        if let Some((d, hr)) = last
-            && (day_no, h.time.hour) <= (d, hr)
+        let start = h.time.minutes_since_epoch();
+        let duration_h = if h.duration_h.is_finite() {
+            h.duration_h.max(0.0)
+        } else {
+            0.0
+        };
+        if let Some((prev, _)) = last
+            && start <= prev
         {
             return Err(PhysicsError::Inconsistent(format!(
-                "the hours are not in time order at {}-{:02}-{:02} {:02}:00",
-                date.0, date.1, date.2, h.time.hour
+                "the rows are not in time order at {}",
+                h.time
             )));
         }
-        let contiguous = last.is_some_and(|(d, hr)| d == day_no && hr + 1 == h.time.hour);
-        if days.last().is_none_or(|d| d.date != date) {
+        let new_day = days.last().is_none_or(|d| d.date != date);
+        let contiguous = !new_day
+            && last.is_some_and(|(_, end)| (start as f64 - end).abs() <= RUN_JOIN_TOLERANCE_MIN);
+        if new_day {
             days.push(RuleDay {
                 date,
-                hours_above: 0,
-                longest_run_h: 0,
-                hours_in_series: 0,
-                unsolved_hours: 0,
+                hours_above: 0.0,
+                longest_run_h: 0.0,
+                hours_in_series: 0.0,
+                unsolved_hours: 0.0,
                 meets: false,
             });
         }
         let Some(day) = days.last_mut() else {
             continue;
         };
-        day.hours_in_series += 1;
+        day.hours_in_series += duration_h;
         if !contiguous {
-            run = 0;
+            run_h = 0.0;
         }
         match rule.temperature_of(h) {
             Some(t) if t > rule.above_c => {
-                day.hours_above += 1;
-                run += 1;
-                day.longest_run_h = day.longest_run_h.max(run);
+                day.hours_above += duration_h;
+                run_h += duration_h;
+                day.longest_run_h = day.longest_run_h.max(run_h);
             }
-            Some(_) => run = 0,
+            Some(_) => run_h = 0.0,
             None => {
-                day.unsolved_hours += 1;
-                run = 0;
+                day.unsolved_hours += duration_h;
+                run_h = 0.0;
             }
         }
-        last = Some((day_no, h.time.hour));
+        last = Some((start, start as f64 + duration_h * 60.0));
     }
+    // Whole hours asked; a sum of logged steps may miss them by rounding only.
+    let needed_h = f64::from(rule.hours) - 1e-6;
     for d in &mut days {
         let got = if rule.hours_in_a_row {
             d.longest_run_h
         } else {
             d.hours_above
         };
-        d.meets = got >= rule.hours;
+        d.meets = got >= needed_h;
     }
     // Count the meeting days, in total and in calendar runs.
     let mut days_meeting = 0u32;

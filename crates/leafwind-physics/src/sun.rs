@@ -211,6 +211,15 @@ impl DateTime {
         f64::from(self.hour) + f64::from(self.minute) / 60.0
     }
 
+    /// Minutes since 1970-01-01 00:00 of the same clock (no time zone applied) \[min\]: for
+    /// ordering rows and measuring the time between them.
+    #[must_use]
+    pub fn minutes_since_epoch(&self) -> i64 {
+        days_from_civil(self.year, self.month, self.day) * 1440
+            + i64::from(self.hour) * 60
+            + i64::from(self.minute)
+    }
+
     /// Parses `YYYY-MM-DD HH:MM` (a `T` may stand for the space; seconds `:SS` are accepted and
     /// ignored). Returns `None` for anything else or a date that does not exist.
     #[must_use]
@@ -568,6 +577,19 @@ pub fn split_global(
         beam_w_m2: g * (1.0 - kd),
         diffuse_w_m2: g * kd,
     })
+}
+
+/// Days since 1970-01-01 of a proleptic Gregorian date (Hinnant, H., "chrono-compatible low-level
+/// date algorithms", `days_from_civil`; public-domain algorithm).
+#[must_use]
+pub fn days_from_civil(y: i32, m: u32, d: u32) -> i64 {
+    let y = i64::from(y) - i64::from(m <= 2);
+    let era = y.div_euclid(400);
+    let yoe = y - era * 400;
+    let m = i64::from(m);
+    let doy = (153 * (if m > 2 { m - 3 } else { m + 9 }) + 2) / 5 + i64::from(d) - 1;
+    let doe = yoe * 365 + yoe / 4 - yoe / 100 + doy;
+    era * 146_097 + doe - 719_468
 }
 
 #[cfg(test)]

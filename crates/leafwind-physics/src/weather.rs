@@ -10,7 +10,9 @@
 //! - `air_temp_c` \[°C\], `rh_pct` \[%\], `wind_m_s` \[m s⁻¹\], `shortwave_w_m2` global horizontal
 //!   \[W m⁻²\], `pressure_kpa` \[kPa\] (may be empty in a row: the site's altitude then gives it).
 //! - Blank lines and lines starting with `#` are skipped. Times must increase from row to row.
-//! - Each data row stands for one hour.
+//! - Rows may be hourly or finer (a climate computer's 5 or 15 min); each row stands for the
+//!   record's logging step ([`crate::design_day::row_durations_h`]), so hours over a limit are
+//!   hours of clock time whatever the logging step.
 //!
 //! Values are checked against the engine's ranges; a bad value rejects its row with an error
 //! naming the line, the column, the value and why.

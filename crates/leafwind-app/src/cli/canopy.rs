@@ -16,7 +16,7 @@ use crate::document::ScenarioDocument;
 use crate::output::finite;
 use crate::units::{Quantity, UnitSystem};
 use crate::words::{
-    num, rule_sentence, shade_sentence, show, speed_sentence, ventilation_sentence,
+    hours, num, rule_sentence, shade_sentence, show, speed_sentence, ventilation_sentence,
 };
 
 /// Arguments of `leafwind canopy`.
@@ -57,6 +57,9 @@ pub struct LayerRecord {
 pub struct StepRecord {
     /// Local clock time, `YYYY-MM-DD HH:MM`.
     pub time: String,
+    /// The time this step stands for \[h\] (1 in an hourly record, the logging step in a finer
+    /// one; hours over the limit add these up).
+    pub duration_h: f64,
     /// Sun elevation \[°\].
     pub sun_elevation_deg: Option<f64>,
     /// Sun azimuth \[°\] clockwise from north.
@@ -107,9 +110,9 @@ pub struct RuleRecord {
     /// The date that completes the rule (YYYY-MM-DD), or null.
     pub first_met: Option<String>,
     /// Most hours above the threshold on one day \[h\].
-    pub most_hours_in_a_day: u32,
+    pub most_hours_in_a_day: f64,
     /// Hours that could not be solved (not counted as above).
-    pub unsolved_hours: u32,
+    pub unsolved_hours: f64,
 }
 
 impl RuleRecord {
@@ -235,6 +238,7 @@ fn series_record(
             let pos = sun::sun_position(site, &h.time).ok();
             StepRecord {
                 time: time_text(&h.time),
+                duration_h: finite(h.duration_h).unwrap_or(0.0),
                 sun_elevation_deg: pos.and_then(|p| finite(p.elevation_rad.to_degrees())),
                 sun_azimuth_deg: pos.and_then(|p| finite(p.azimuth_rad.to_degrees())),
                 air_temp_c: h.air_temp_c,
@@ -501,7 +505,7 @@ fn write_text(
         writeln!(
             out,
             "{name}: {} h over the limit, {} {}·h over it, smallest margin {}",
-            num(s.hours_over_limit, 0),
+            hours(s.hours_over_limit),
             dq.number(s.degree_hours_over_k_h, units),
             dq.unit(units),
             s.min_margin_k
@@ -546,7 +550,7 @@ fn write_text(
                 o.option,
                 opt(o.hottest_leaf_temp_c, tq),
                 opt(o.margin_k, dq),
-                o.hours_over_limit.map_or("—".to_owned(), |h| num(h, 0)),
+                o.hours_over_limit.map_or("—".to_owned(), hours),
                 format!(
                     "{}{}",
                     num(o.water_l_m2, 2),

@@ -293,7 +293,7 @@ fn design_day_from_series(
         num_span(
             Some("day-hours-over"),
             s.hours_over_limit,
-            &format!("{:.0}", s.hours_over_limit)
+            &crate::words::hours(s.hours_over_limit)
         ),
         esc(&super::tables::show_num(degree_hours, 1)),
         esc(&degree_unit),

@@ -121,7 +121,7 @@ fn open_field_json_has_the_documented_keys_and_a_design_day() {
     assert_eq!(rule["verdict"], "met");
     assert_eq!(rule["days_meeting"], 1);
     assert!(rule["first_met"].as_str().unwrap().starts_with("20"));
-    assert!(rule["most_hours_in_a_day"].as_u64().unwrap() >= 2);
+    assert!(rule["most_hours_in_a_day"].as_f64().unwrap() >= 2.0);
     // The hottest leaf is the one the layers say.
     let layer = v["hottest_layer"].as_u64().unwrap() as usize;
     let l = &v["layers"][layer];

@@ -392,10 +392,10 @@ fn a_weather_file_typed_in_the_canopy_tab_is_run_hour_by_hour() {
     h.run();
     h.get_by_label("Weather file").click();
     h.run();
-    h.get_by_role_and_label(Role::TextInput, "Hourly weather CSV")
+    h.get_by_role_and_label(Role::TextInput, "Weather CSV")
         .focus();
     h.run();
-    h.get_by_role_and_label(Role::TextInput, "Hourly weather CSV")
+    h.get_by_role_and_label(Role::TextInput, "Weather CSV")
         .type_text(&file.display().to_string());
     h.run();
     assert_eq!(

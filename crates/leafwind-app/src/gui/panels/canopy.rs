@@ -20,7 +20,7 @@ use leafwind_physics::design_day::{DayHumidity, DesignDay, HourlySeries};
 
 use crate::canopy_scenario::CoolingTable;
 use crate::words::{
-    no_negative_zero, num, rule_sentence, shade_sentence, show, show_speed, speed_sentence,
+    hours, no_negative_zero, num, rule_sentence, shade_sentence, show, show_speed, speed_sentence,
     ventilation_sentence,
 };
 use leafwind_physics::error::ValidRange;
@@ -1024,15 +1024,15 @@ fn section_inputs(
         ui.horizontal(|ui| {
             field_label(
                 ui,
-                "Hourly weather CSV",
-                "A logger or weather-service file run hour by hour like the design day. Columns: time (YYYY-MM-DD HH:MM, local clock), air_temp_c, rh_pct, wind_m_s, shortwave_w_m2, optionally pressure_kpa. A path relative to the scenario file's folder, or absolute. Rows that cannot be read are listed and skipped; the others still run. Empty: no weather file.",
+                "Weather CSV",
+                "A logger or weather-service file run row by row like the design day, hourly or finer (a climate computer's 5 or 15 min): each row stands for the file's logging step, so hours over the limit are clock hours and a gap in the record is not counted. Columns: time (YYYY-MM-DD HH:MM, local clock), air_temp_c, rh_pct, wind_m_s, shortwave_w_m2, optionally pressure_kpa. A path relative to the scenario file's folder, or absolute. Rows that cannot be read are listed and skipped; the others still run. Empty: no weather file.",
             );
             let r = ui.add(
                 egui::TextEdit::singleline(&mut text)
                     .desired_width(200.0)
                     .hint_text("weather.csv"),
             );
-            name_widget(ui, &r, "Hourly weather CSV");
+            name_widget(ui, &r, "Weather CSV");
             if r.changed() {
                 let t = text.trim();
                 c.weather_csv = (!t.is_empty()).then(|| PathBuf::from(t));
@@ -1804,19 +1804,17 @@ fn small_plots(ui: &mut Ui, run: &CanopyRun, units: UnitSystem, height: f32) {
         });
 }
 
-/// The hour of a row of a series, counted from its first hour \[h\] (design day: the clock hour).
+/// The time of each row of a series in hours since midnight of its first day \[h\] (a design day:
+/// the clock hour; a longer file: 24 h a day, across month and year ends).
 fn series_hours(s: &HourlySeries) -> Vec<f64> {
     let Some(first) = s.hours.first() else {
         return Vec::new();
     };
-    let t0 = first.time.day_of_year() as f64 * 24.0 - first.time.decimal_hour().floor() + 0.0;
+    let midnight = DateTime::date(first.time.year, first.time.month, first.time.day);
+    let m0 = midnight.minutes_since_epoch();
     s.hours
         .iter()
-        .map(|h| {
-            let t = h.time.day_of_year() as f64 * 24.0 + h.time.decimal_hour();
-            // Clock hour for one day; hours since the first day's midnight for longer files.
-            t - t0
-        })
+        .map(|h| (h.time.minutes_since_epoch() - m0) as f64 / 60.0)
         .collect()
 }
 
@@ -1897,7 +1895,7 @@ fn series_block(ui: &mut Ui, what: &str, s: &HourlySeries, units: UnitSystem) {
     ui.label(RichText::new(format!("{what}: the hottest leaf hour by hour")).strong());
     ui.label(format!(
         "Hours over the limit: {} h. Degree-hours over the limit: {} {}·h.{}{}",
-        num(over, 0),
+        hours(over),
         num(no_negative_zero(dh, 2), 2),
         dq.unit(units),
         s.max_leaf_temp_c.map_or_else(String::new, |t| format!(
@@ -1919,6 +1917,7 @@ fn series_block(ui: &mut Ui, what: &str, s: &HourlySeries, units: UnitSystem) {
         );
     }
     let xs = series_hours(s);
+    let one_day = xs.last().is_none_or(|&x| x <= 24.0);
     let air: Vec<[f64; 2]> = s
         .hours
         .iter()
@@ -1949,10 +1948,14 @@ fn series_block(ui: &mut Ui, what: &str, s: &HourlySeries, units: UnitSystem) {
     Plot::new("canopy-series")
         .height(210.0)
         .legend(Legend::default().follow_insertion_order(true))
-        .x_axis_label("Local clock time [h]")
+        .x_axis_label(if one_day {
+            "Local clock time [h]"
+        } else {
+            "Hours since midnight of the first day [h]"
+        })
         .y_axis_label(format!("Temperature [{t_unit}]"))
         .include_x(0.0)
-        .include_x(if xs.len() <= 25 { 24.0 } else { 0.0 })
+        .include_x(if one_day { 24.0 } else { 0.0 })
         .label_formatter(move |p| hover_text(p, "h", t_unit, 1, 1))
         .show(ui, |p| {
             let inside = !outside.is_empty();
